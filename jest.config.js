@@ -3,6 +3,6 @@ module.exports = {
   testEnvironment: 'node',
   roots: ['<rootDir>/test'],
   testMatch: ['**/*.test.ts'],
-  transform: { '^.+\\.ts$': ['ts-jest', { isolatedModules: true, diagnostics: false }] },
+  transform: { '^.+\\.ts$': ['ts-jest', { diagnostics: false }] },
   testTimeout: 60000,
 };

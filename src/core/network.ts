@@ -1,0 +1,699 @@
+import { numError, valueError } from './errors';
+import { ACROSS, C, checkValues, L, LadderTable, PLUS, R, SHUNT } from './ladder';
+import { LIMITS } from './limits';
+import { formatEng } from './units';
+
+/**
+ * Phasor analysis of a ladder (DESIGN §2, §3 IMPEDANCE / TRANSFER / RESPONSE) at one frequency at a time,
+ * without allocation: every impedance, voltage and current lives in a slot of one preallocated Float64Array.
+ *
+ * Ideal parts make some frequencies singular: at DC an inductor is a short and a capacitor an open, and a
+ * loss-free resonance can land exactly on a frequency. Each quantity is therefore held as the leading part of
+ * its expansion around the frequency asked for,
+ *     x ≈ ε^k · (a₀ + a₁·ε),   a₀ ≠ 0,
+ * with ε = jω at DC (so L → L·ε, C → (1/C)·ε⁻¹) and ε = ω − ω₀ elsewhere (a₁ = dZ/dω of each part).
+ * Series and parallel combination then never divide by zero: orders add, the lower order wins a sum, and a sum
+ * whose leading terms cancel (a resonance, to within SNAP) moves on to the next order. At the end a quantity
+ * with k > 0 is 0, k = 0 is a₀, and k < 0 is unbounded; this is the limit f → f₀, so for instance two
+ * capacitors in series share DC voltage inversely to C and two inductors in parallel share DC current
+ * inversely to L. At ordinary frequencies only a₀ is carried (one complex number per quantity); the a₁ terms
+ * are computed only when a cancellation needs them.
+ */
+
+/** Relative size below which a sum of two terms is taken as an exact cancellation (a loss-free resonance). */
+export const SNAP = 1e-13;
+
+// Slot layout: order k, number of reliable terms t (1 or 2), a₀ (re, im), a₁ (re, im).
+const SLOT = 6;
+const K = 0;
+const T = 1;
+const A0R = 2;
+const A0I = 3;
+const A1R = 4;
+const A1I = 5;
+/** reg[LOST] is set when a cancellation consumed every reliable term. */
+const LOST = 0;
+
+/** Flags in Solution.bad and Solution.portBad. */
+export const V_UNBOUNDED = 1;
+export const I_UNBOUNDED = 2;
+
+export type SourceKind = 'voltage' | 'current';
+
+/**
+ * One frequency's solution for a unit source (1 V or 1 A, phase 0), written by LadderSolver.solve.
+ * Sign conventions: each element's current flows from the source side to the far side (series branches) or
+ * from the node to ground (shunt branches), through `+` and `||` elements in the same sense as through their
+ * branch; its voltage is the drop in that direction (v = Z·i). The source current flows out of the voltage
+ * source into node 1; the source voltage is node 1 against ground.
+ */
+export interface Solution {
+  readonly vRe: Float64Array;
+  readonly vIm: Float64Array;
+  readonly iRe: Float64Array;
+  readonly iIm: Float64Array;
+  /** Per row: V_UNBOUNDED and/or I_UNBOUNDED where that quantity has no finite value (its slots hold 0). */
+  readonly bad: Uint8Array;
+  /** [source re, source im, far re, far im]: source current (voltage source) or voltage (current source). */
+  readonly port: Float64Array;
+  /** [source, far end]: 1 where unbounded. */
+  readonly portBad: Uint8Array;
+}
+
+export function makeSolution(table: LadderTable): Solution {
+  const n = table.rows;
+  return {
+    vRe: new Float64Array(n), vIm: new Float64Array(n), iRe: new Float64Array(n), iIm: new Float64Array(n),
+    bad: new Uint8Array(n), port: new Float64Array(4), portBad: new Uint8Array(2),
+  };
+}
+
+/** "DC" or "2 kHz", for messages. */
+export function describeFrequency(f: number): string {
+  if (f === 0) return 'DC (0 Hz)';
+  return formatEng(f, 'Hz', 6).replace(/\.?0+(?= )/, '');
+}
+
+// ---- truncated-series arithmetic on slots of r (indices are slot offsets) ----
+
+function setSlot(r: Float64Array, d: number, k: number, t: number, a0r: number, a0i: number, a1r: number, a1i: number): void {
+  r[d + K] = k;
+  r[d + T] = t;
+  r[d + A0R] = a0r;
+  r[d + A0I] = a0i;
+  r[d + A1R] = a1r;
+  r[d + A1I] = a1i;
+}
+
+function copy(r: Float64Array, d: number, x: number): void {
+  for (let i = 0; i < SLOT; i++) r[d + i] = r[x + i];
+}
+
+function mul(r: Float64Array, d: number, x: number, y: number): void {
+  const xr = r[x + A0R], xi = r[x + A0I], yr = r[y + A0R], yi = r[y + A0I];
+  const t = Math.min(r[x + T], r[y + T]);
+  if (t > 1) {
+    const x1r = r[x + A1R], x1i = r[x + A1I], y1r = r[y + A1R], y1i = r[y + A1I];
+    r[d + A1R] = xr * y1r - xi * y1i + x1r * yr - x1i * yi;
+    r[d + A1I] = xr * y1i + xi * y1r + x1r * yi + x1i * yr;
+  }
+  r[d + K] = r[x + K] + r[y + K];
+  r[d + T] = t;
+  r[d + A0R] = xr * yr - xi * yi;
+  r[d + A0I] = xr * yi + xi * yr;
+}
+
+/** d = 1/x (Smith's scaling, so huge or tiny parts do not overflow the squared modulus). */
+function inv(r: Float64Array, d: number, x: number): void {
+  const xr = r[x + A0R], xi = r[x + A0I];
+  let ur: number, ui: number;
+  if (Math.abs(xr) >= Math.abs(xi)) {
+    if (xr === 0) throw numError('component values reach outside the floating-point range; scale the ladder values.');
+    const q = xi / xr, s = 1 / (xr + xi * q);
+    ur = s;
+    ui = -q * s;
+  } else {
+    const q = xr / xi, s = 1 / (xr * q + xi);
+    ur = q * s;
+    ui = -s;
+  }
+  const t = r[x + T];
+  if (t > 1) {
+    // a₁ of 1/x is −x₁/x₀²
+    const x1r = r[x + A1R], x1i = r[x + A1I];
+    const sr = ur * ur - ui * ui, si = 2 * ur * ui;
+    r[d + A1R] = -(x1r * sr - x1i * si);
+    r[d + A1I] = -(x1r * si + x1i * sr);
+  }
+  r[d + K] = -r[x + K];
+  r[d + T] = t;
+  r[d + A0R] = ur;
+  r[d + A0I] = ui;
+}
+
+function div(r: Float64Array, d: number, x: number, y: number, tmp: number): void {
+  inv(r, tmp, y);
+  mul(r, d, x, tmp);
+}
+
+/** A sum component that is rounding noise of a cancellation becomes an exact 0. */
+function snap(s: number, scale: number): number {
+  return Math.abs(s) <= SNAP * scale ? 0 : s;
+}
+
+function add(r: Float64Array, d: number, x: number, y: number): void {
+  if (r[x + K] > r[y + K]) {
+    const s = x;
+    x = y;
+    y = s;
+  }
+  const gap = r[y + K] - r[x + K];
+  const tx = r[x + T], ty = r[y + T];
+  if (gap >= 2) {
+    copy(r, d, x);
+    return;
+  }
+  const xr = r[x + A0R], xi = r[x + A0I], yr = r[y + A0R], yi = r[y + A0I];
+  if (gap === 1) {
+    const t = Math.min(tx, 1 + ty);
+    if (t > 1) {
+      const x1r = r[x + A1R], x1i = r[x + A1I];
+      const scale = Math.abs(x1r) + Math.abs(x1i) + Math.abs(yr) + Math.abs(yi);
+      r[d + A1R] = snap(x1r + yr, scale);
+      r[d + A1I] = snap(x1i + yi, scale);
+    }
+    r[d + K] = r[x + K];
+    r[d + T] = t;
+    r[d + A0R] = xr;
+    r[d + A0I] = xi;
+    return;
+  }
+  const k = r[x + K];
+  const t = Math.min(tx, ty);
+  const scale0 = Math.abs(xr) + Math.abs(xi) + Math.abs(yr) + Math.abs(yi);
+  const s0r = snap(xr + yr, scale0), s0i = snap(xi + yi, scale0);
+  let s1r = 0, s1i = 0;
+  if (t > 1) {
+    const x1r = r[x + A1R], x1i = r[x + A1I], y1r = r[y + A1R], y1i = r[y + A1I];
+    const scale1 = Math.abs(x1r) + Math.abs(x1i) + Math.abs(y1r) + Math.abs(y1i);
+    s1r = snap(x1r + y1r, scale1);
+    s1i = snap(x1i + y1i, scale1);
+  }
+  if (s0r !== 0 || s0i !== 0) {
+    setSlot(r, d, k, t, s0r, s0i, s1r, s1i);
+  } else if (t > 1 && (s1r !== 0 || s1i !== 0)) {
+    setSlot(r, d, k + 1, 1, s1r, s1i, 0, 0); // the leading terms cancelled: the next order leads
+  } else {
+    r[LOST] = 1; // needs a term not carried; a harmless stand-in keeps the pass going until it is redone
+    setSlot(r, d, 0, 1, 1, 0, 0, 0);
+  }
+}
+
+// ---- plain complex arithmetic for the fast path; results go to OUT (no allocation) ----
+
+const OUT = new Float64Array(2);
+
+/** OUT = a + b, snapped like `add`; false when it cancels to 0 (a resonance: the general path takes over). */
+function csum(ar: number, ai: number, br: number, bi: number): boolean {
+  const scale = Math.abs(ar) + Math.abs(ai) + Math.abs(br) + Math.abs(bi);
+  const sr = snap(ar + br, scale), si = snap(ai + bi, scale);
+  OUT[0] = sr;
+  OUT[1] = si;
+  return sr !== 0 || si !== 0;
+}
+
+/** OUT = 1/a with the same scaling as `inv`; false for a = 0 (underflow). */
+function crecip(ar: number, ai: number): boolean {
+  if (Math.abs(ar) >= Math.abs(ai)) {
+    if (ar === 0) return false;
+    const q = ai / ar, s = 1 / (ar + ai * q);
+    OUT[0] = s;
+    OUT[1] = -q * s;
+  } else {
+    const q = ar / ai, s = 1 / (ar * q + ai);
+    OUT[0] = q * s;
+    OUT[1] = -s;
+  }
+  return true;
+}
+
+/** OUT = a / b. */
+function cdiv(ar: number, ai: number, br: number, bi: number): boolean {
+  if (!crecip(br, bi)) return false;
+  const ur = OUT[0], ui = OUT[1];
+  OUT[0] = ar * ur - ai * ui;
+  OUT[1] = ar * ui + ai * ur;
+  return true;
+}
+
+/** OUT = a·b / (a + b), in the order `parallel` uses. */
+function cpar(ar: number, ai: number, br: number, bi: number): boolean {
+  if (!csum(ar, ai, br, bi) || !crecip(OUT[0], OUT[1])) return false;
+  const ur = OUT[0], ui = OUT[1];
+  const pr = ar * br - ai * bi, pi = ar * bi + ai * br;
+  OUT[0] = pr * ur - pi * ui;
+  OUT[1] = pr * ui + pi * ur;
+  return true;
+}
+
+/**
+ * Evaluates one ladder at one frequency at a time. Construct once per table (it preallocates everything),
+ * optionally `setValues` per design case, then call `impedanceAt` / `solve` per frequency.
+ *
+ * Two paths give the same numbers: at f > 0 a plain complex pass runs first and hands over to the general
+ * (expansion) pass only when a sum cancels exactly, i.e. at a loss-free resonance; DC always takes the
+ * general pass.
+ */
+export class LadderSolver {
+  readonly table: LadderTable;
+  /** Index of the last shunt branch; −1 when the ladder has no path to ground at all. */
+  readonly lastShunt: number;
+  /** false forces the general pass everywhere (tests compare the two paths). */
+  fast = true;
+  private values: ArrayLike<number>;
+  private readonly reg: Float64Array;
+  // Slot bases of the general pass: element impedances, branch composites after each row, load impedances.
+  private readonly zBase: number;
+  private readonly wBase: number;
+  private readonly lBase: number;
+  private readonly tmp: number;
+  // The fast pass's counterparts as plain complex arrays.
+  private readonly zr: Float64Array;
+  private readonly zi: Float64Array;
+  private readonly wr: Float64Array;
+  private readonly wi: Float64Array;
+  private readonly lr: Float64Array;
+  private readonly li: Float64Array;
+  private readonly pair = new Float64Array(2);
+
+  constructor(table: LadderTable, values?: ArrayLike<number>) {
+    this.table = table;
+    this.values = table.value;
+    if (values) this.setValues(values);
+    const n = table.rows;
+    const b = table.branches;
+    this.zBase = SLOT;
+    this.wBase = this.zBase + n * SLOT;
+    this.lBase = this.wBase + n * SLOT;
+    this.tmp = this.lBase + b * SLOT;
+    this.reg = new Float64Array(this.tmp + 8 * SLOT);
+    this.zr = new Float64Array(n);
+    this.zi = new Float64Array(n);
+    this.wr = new Float64Array(n);
+    this.wi = new Float64Array(n);
+    this.lr = new Float64Array(b);
+    this.li = new Float64Array(b);
+    let last = -1;
+    for (let k = 0; k < b; k++) if (table.role[table.branchStart[k]] === SHUNT) last = k;
+    this.lastShunt = last;
+  }
+
+  /** Replace the value column for the following evaluations (DESIGN §2 values override); undefined restores it. */
+  setValues(values?: ArrayLike<number>): void {
+    this.values = values ? checkValues(this.table, values) : this.table.value;
+  }
+
+  /**
+   * Impedance seen by the source at frequency f (Hz) into out[0], out[1]; returns false (out = 0) when it is
+   * unbounded (an open circuit: no path to ground, only capacitors at DC, or a loss-free parallel resonance).
+   */
+  impedanceAt(f: number, out: Float64Array): boolean {
+    if (this.lastShunt < 0) {
+      out[0] = out[1] = 0;
+      return false;
+    }
+    if (f > 0 && this.fast && this.fastBackward(2 * Math.PI * f)) {
+      out[0] = this.lr[0];
+      out[1] = this.li[0];
+      checkRange(out[0], out[1], f);
+      return true;
+    }
+    for (let terms = f > 0 ? 2 : 1; ; terms++) {
+      this.backward(f, terms);
+      if (this.reg[LOST] === 0) break;
+      if (terms === 2) throw indeterminate(f);
+    }
+    return this.extract(this.lBase, out, 0, f);
+  }
+
+  /**
+   * Solve for a unit source at frequency f (Hz). With `elements` false only `port` and `portBad` are written
+   * (cheaper, for the transfer function).
+   */
+  solve(f: number, source: SourceKind, out: Solution, elements = true): void {
+    const currentSource = source === 'current';
+    if (elements) {
+      out.vRe.fill(0);
+      out.vIm.fill(0);
+      out.iRe.fill(0);
+      out.iIm.fill(0);
+      out.bad.fill(0);
+    }
+    if (this.lastShunt < 0) return noPath(currentSource, out, elements);
+    if (f > 0 && this.fast && this.fastBackward(2 * Math.PI * f) && this.fastForward(currentSource, out, elements, f)) return;
+    for (let terms = f > 0 ? 2 : 1; ; terms++) {
+      this.backward(f, terms);
+      if (this.reg[LOST] === 0) {
+        this.forward(f, currentSource, out, elements);
+        return;
+      }
+      if (terms === 2) throw indeterminate(f);
+    }
+  }
+
+  // ---- fast pass (f > 0, nothing cancels) ----
+
+  private fastBackward(w: number): boolean {
+    const { table, values, zr, zi, wr, wi, lr, li } = this;
+    for (let i = 0; i < table.rows; i++) {
+      const v = values[i];
+      const kind = table.kind[i];
+      const a = kind === R ? v : 0;
+      const b = kind === L ? w * v : kind === C ? -(1 / (w * v)) : 0;
+      zr[i] = a;
+      zi[i] = b;
+      const role = table.role[i];
+      if (role === PLUS || role === ACROSS) {
+        if (!(role === PLUS ? csum(wr[i - 1], wi[i - 1], a, b) : cpar(wr[i - 1], wi[i - 1], a, b))) return false;
+        wr[i] = OUT[0];
+        wi[i] = OUT[1];
+      } else {
+        wr[i] = a;
+        wi[i] = b;
+      }
+    }
+    const last = this.lastShunt;
+    const starts = table.branchStart;
+    lr[last] = wr[starts[last + 1] - 1];
+    li[last] = wi[starts[last + 1] - 1];
+    for (let b = last - 1; b >= 0; b--) {
+      const e = starts[b + 1] - 1;
+      const ok = table.role[starts[b]] === SHUNT ? cpar(wr[e], wi[e], lr[b + 1], li[b + 1]) : csum(wr[e], wi[e], lr[b + 1], li[b + 1]);
+      if (!ok) return false;
+      lr[b] = OUT[0];
+      li[b] = OUT[1];
+    }
+    return true;
+  }
+
+  private fastForward(currentSource: boolean, out: Solution, elements: boolean, f: number): boolean {
+    const { table, wr, wi, lr, li } = this;
+    const last = this.lastShunt;
+    const starts = table.branchStart;
+    let vr: number, vi: number, ir: number, ii: number;
+    if (currentSource) {
+      ir = 1;
+      ii = 0;
+      vr = lr[0];
+      vi = li[0];
+      out.port[0] = vr;
+      out.port[1] = vi;
+    } else {
+      if (!crecip(lr[0], li[0])) return false;
+      vr = 1;
+      vi = 0;
+      ir = OUT[0];
+      ii = OUT[1];
+      out.port[0] = ir;
+      out.port[1] = ii;
+    }
+    for (let b = 0; b <= last; b++) {
+      const e = starts[b + 1] - 1;
+      const zbr = wr[e], zbi = wi[e];
+      let bvr: number, bvi: number, bir: number, bii: number;
+      if (table.role[starts[b]] === SHUNT) {
+        bvr = vr;
+        bvi = vi;
+        if (!cdiv(vr, vi, zbr, zbi)) return false;
+        bir = OUT[0];
+        bii = OUT[1];
+        if (b < last) {
+          if (!cdiv(vr, vi, lr[b + 1], li[b + 1])) return false;
+          ir = OUT[0];
+          ii = OUT[1];
+        }
+      } else {
+        bir = ir;
+        bii = ii;
+        bvr = ir * zbr - ii * zbi;
+        bvi = ir * zbi + ii * zbr;
+        const nr = lr[b + 1], ni = li[b + 1];
+        vr = ir * nr - ii * ni;
+        vi = ir * ni + ii * nr;
+      }
+      if (elements && !this.fastUnfold(b, bvr, bvi, bir, bii, out)) return false;
+    }
+    out.port[2] = vr;
+    out.port[3] = vi;
+    out.portBad[0] = out.portBad[1] = 0;
+    checkRange(out.port[0], out.port[1], f);
+    checkRange(vr, vi, f);
+    if (elements) for (let i = 0; i < table.rows; i++) checkRange(out.vRe[i] + out.vIm[i], out.iRe[i] + out.iIm[i], f);
+    return true;
+  }
+
+  private fastUnfold(b: number, vr: number, vi: number, ir: number, ii: number, out: Solution): boolean {
+    const { table, zr, zi, wr, wi } = this;
+    const first = table.branchStart[b];
+    for (let i = table.branchStart[b + 1] - 1; i > first; i--) {
+      if (table.role[i] === PLUS) {
+        out.vRe[i] = ir * zr[i] - ii * zi[i];
+        out.vIm[i] = ir * zi[i] + ii * zr[i];
+        out.iRe[i] = ir;
+        out.iIm[i] = ii;
+        const pr = wr[i - 1], pi = wi[i - 1];
+        const nr = ir * pr - ii * pi;
+        vi = ir * pi + ii * pr;
+        vr = nr;
+      } else {
+        if (!cdiv(vr, vi, zr[i], zi[i])) return false;
+        out.vRe[i] = vr;
+        out.vIm[i] = vi;
+        out.iRe[i] = OUT[0];
+        out.iIm[i] = OUT[1];
+        if (!cdiv(vr, vi, wr[i - 1], wi[i - 1])) return false;
+        ir = OUT[0];
+        ii = OUT[1];
+      }
+    }
+    out.vRe[first] = vr;
+    out.vIm[first] = vi;
+    out.iRe[first] = ir;
+    out.iIm[first] = ii;
+    return true;
+  }
+
+  // ---- general pass (DC, resonances) ----
+
+  /** Element impedances, branch composites and load impedances, right to left. */
+  private backward(f: number, terms: number): void {
+    const { table, reg: r, values } = this;
+    r[LOST] = 0;
+    const w = 2 * Math.PI * f;
+    for (let i = 0; i < table.rows; i++) {
+      const d = this.zBase + i * SLOT;
+      const v = values[i];
+      const kind = table.kind[i];
+      if (w === 0) {
+        // ε = jω: R = R·ε⁰, L = L·ε¹, C = (1/C)·ε⁻¹, all exact (a₁ = 0).
+        if (kind === L) setSlot(r, d, 1, 2, v, 0, 0, 0);
+        else if (kind === C) setSlot(r, d, -1, 2, 1 / v, 0, 0, 0);
+        else setSlot(r, d, 0, 2, v, 0, 0, 0);
+      } else if (kind === L) setSlot(r, d, 0, terms, 0, w * v, 0, v);
+      else if (kind === C) {
+        const x = 1 / (w * v);
+        setSlot(r, d, 0, terms, 0, -x, 0, x / w);
+      } else setSlot(r, d, 0, terms, v, 0, 0, 0);
+    }
+    const t1 = this.tmp, t2 = this.tmp + SLOT;
+    for (let i = 0; i < table.rows; i++) {
+      const wi = this.wBase + i * SLOT, zi = this.zBase + i * SLOT;
+      const role = table.role[i];
+      if (role === PLUS) add(r, wi, wi - SLOT, zi);
+      else if (role === ACROSS) parallel(r, wi, wi - SLOT, zi, t1, t2);
+      else copy(r, wi, zi);
+    }
+    const last = this.lastShunt;
+    if (last < 0) return;
+    copy(r, this.lBase + last * SLOT, this.branchSlot(last));
+    for (let b = last - 1; b >= 0; b--) {
+      const lb = this.lBase + b * SLOT;
+      if (table.role[table.branchStart[b]] === SHUNT) parallel(r, lb, this.branchSlot(b), lb + SLOT, t1, t2);
+      else add(r, lb, this.branchSlot(b), lb + SLOT);
+    }
+  }
+
+  /** Slot of branch b's total impedance (the composite after its last row). */
+  private branchSlot(b: number): number {
+    return this.wBase + (this.table.branchStart[b + 1] - 1) * SLOT;
+  }
+
+  /** Node voltages and branch currents left to right, then each branch unfolded into its elements. */
+  private forward(f: number, currentSource: boolean, out: Solution, elements: boolean): void {
+    const { table, reg: r } = this;
+    const last = this.lastShunt;
+    const vn = this.tmp + 2 * SLOT, iin = vn + SLOT, vb = iin + SLOT, ib = vb + SLOT, scratch = ib + SLOT;
+    if (currentSource) {
+      setSlot(r, iin, 0, 2, 1, 0, 0, 0);
+      copy(r, vn, this.lBase);
+      out.portBad[0] = this.extract(vn, out.port, 0, f) ? 0 : 1;
+    } else {
+      setSlot(r, vn, 0, 2, 1, 0, 0, 0);
+      inv(r, iin, this.lBase);
+      out.portBad[0] = this.extract(iin, out.port, 0, f) ? 0 : 1;
+    }
+    for (let b = 0; b <= last; b++) {
+      const zb = this.branchSlot(b);
+      if (table.role[table.branchStart[b]] === SHUNT) {
+        if (elements) {
+          copy(r, vb, vn);
+          div(r, ib, vn, zb, scratch);
+        }
+        if (b < last) div(r, iin, vn, this.lBase + (b + 1) * SLOT, scratch);
+      } else {
+        if (elements) {
+          copy(r, ib, iin);
+          mul(r, vb, iin, zb);
+        }
+        mul(r, vn, iin, this.lBase + (b + 1) * SLOT);
+      }
+      if (elements) this.unfold(b, vb, ib, out, f);
+    }
+    out.portBad[1] = this.extract(vn, out.port, 2, f) ? 0 : 1;
+  }
+
+  /**
+   * Split a branch's voltage and current (slots vc, ic, overwritten) over its rows, last row first:
+   * a `+` row carries the composite's current, a `||` row sees the composite's voltage.
+   */
+  private unfold(b: number, vc: number, ic: number, out: Solution, f: number): void {
+    const { table, reg: r } = this;
+    const first = table.branchStart[b];
+    const ev = this.tmp + 7 * SLOT, scratch = ev - SLOT;
+    for (let i = table.branchStart[b + 1] - 1; i > first; i--) {
+      const zi = this.zBase + i * SLOT, wPrev = this.wBase + (i - 1) * SLOT;
+      if (table.role[i] === PLUS) {
+        mul(r, ev, ic, zi);
+        this.store(i, ev, ic, out, f);
+        mul(r, vc, ic, wPrev);
+      } else {
+        div(r, ev, vc, zi, scratch);
+        this.store(i, vc, ev, out, f);
+        div(r, ic, vc, wPrev, scratch);
+      }
+    }
+    this.store(first, vc, ic, out, f);
+  }
+
+  private store(i: number, v: number, c: number, out: Solution, f: number): void {
+    const pair = this.pair;
+    let bad = 0;
+    if (!this.extract(v, pair, 0, f)) bad |= V_UNBOUNDED;
+    out.vRe[i] = pair[0];
+    out.vIm[i] = pair[1];
+    if (!this.extract(c, pair, 0, f)) bad |= I_UNBOUNDED;
+    out.iRe[i] = pair[0];
+    out.iIm[i] = pair[1];
+    out.bad[i] = bad;
+  }
+
+  /** The value at the expansion point into out[at], out[at + 1]: 0 for k > 0, a₀ for k = 0; false (and 0) for k < 0. */
+  private extract(x: number, out: Float64Array, at: number, f: number): boolean {
+    const r = this.reg;
+    const k = r[x + K];
+    out[at] = out[at + 1] = 0;
+    if (k < 0) return false;
+    if (k === 0) {
+      checkRange(r[x + A0R], r[x + A0I], f);
+      out[at] = r[x + A0R] + 0;
+      out[at + 1] = r[x + A0I] + 0;
+    }
+    return true;
+  }
+}
+
+/** No path to ground: no current anywhere and the far end follows the source; a current source has no solution. */
+function noPath(currentSource: boolean, out: Solution, elements: boolean): void {
+  out.port.fill(0);
+  if (currentSource) {
+    out.portBad[0] = out.portBad[1] = 1;
+    if (elements) out.bad.fill(V_UNBOUNDED | I_UNBOUNDED);
+  } else {
+    out.portBad[0] = out.portBad[1] = 0;
+    out.port[2] = 1;
+  }
+}
+
+/** Any sum of a and b that is not finite (overflow, or NaN from it) means the ladder left the double range. */
+function checkRange(a: number, b: number, f: number): void {
+  if (!(Math.abs(a) < Infinity && Math.abs(b) < Infinity)) {
+    throw numError(
+      `at ${describeFrequency(f)} a voltage or current of the ladder exceeds the floating-point range; ` +
+        'check the component values and frequency.',
+    );
+  }
+}
+
+function indeterminate(f: number) {
+  return numError(
+    `at ${describeFrequency(f)} loss-free resonances coincide so exactly that the ideal network has no single ` +
+      'solution; add the parts\u2019 ESR/DCR or a damping resistor.',
+  );
+}
+
+/**
+ * d = x·y / (x + y). Orders make an open (k < 0) or a short (k > 0) need no special case, and a cancelling
+ * sum (parallel resonance) raises the denominator's order, making d an open.
+ */
+function parallel(r: Float64Array, d: number, x: number, y: number, t1: number, t2: number): void {
+  add(r, t1, x, y);
+  inv(r, t2, t1);
+  mul(r, t1, x, y);
+  mul(r, d, t1, t2);
+}
+
+/** Validate a frequency list (Hz): 1 … LIMITS.sweep finite values ≥ 0. */
+export function checkFrequencies(freqs: ArrayLike<number>, what = 'frequency'): void {
+  if (freqs.length === 0) throw valueError(`${what} must hold at least one frequency in Hz.`);
+  if (freqs.length > LIMITS.sweep) {
+    throw numError(`${what} holds ${freqs.length} frequencies; at most ${LIMITS.sweep} are allowed in one sweep.`);
+  }
+  for (let i = 0; i < freqs.length; i++) {
+    const f = freqs[i];
+    if (typeof f !== 'number' || Number.isNaN(f)) throw valueError(`${what} must be numbers in Hz; entry ${i + 1} is not.`);
+    if (!(f >= 0 && f < Infinity)) throw numError(`${what} must be finite and ≥ 0 Hz; entry ${i + 1} is ${f}.`);
+  }
+}
+
+export interface ComplexArrays {
+  re: Float64Array;
+  im: Float64Array;
+}
+
+/**
+ * Impedance seen by the source (voltage source at node 1, far end open unless a shunt ends it), per frequency
+ * in Hz. `values` optionally replaces the value column. Throws NUM where the ladder is an open circuit.
+ */
+export function impedance(table: LadderTable, freqs: ArrayLike<number>, values?: ArrayLike<number>): ComplexArrays {
+  checkFrequencies(freqs);
+  const solver = new LadderSolver(table, values);
+  const re = new Float64Array(freqs.length), im = new Float64Array(freqs.length);
+  const z = new Float64Array(2);
+  for (let i = 0; i < freqs.length; i++) {
+    if (!solver.impedanceAt(freqs[i], z)) {
+      const why =
+        solver.lastShunt < 0
+          ? 'nothing connects it to ground'
+          : freqs[i] === 0
+            ? 'its only paths to ground are capacitors'
+            : 'a loss-free parallel resonance lands exactly on this frequency';
+      throw numError(
+        `the ladder is an open circuit at ${describeFrequency(freqs[i])} (${why}): its impedance is unbounded; ` +
+          'add a resistor to ground or the parts\u2019 ESR/DCR.',
+      );
+    }
+    re[i] = z[0];
+    im[i] = z[1];
+  }
+  return { re, im };
+}
+
+/** Far-end voltage / source voltage per frequency in Hz. Throws NUM where it is unbounded. */
+export function transfer(table: LadderTable, freqs: ArrayLike<number>, values?: ArrayLike<number>): ComplexArrays {
+  checkFrequencies(freqs);
+  const solver = new LadderSolver(table, values);
+  const sol = makeSolution(table);
+  const re = new Float64Array(freqs.length), im = new Float64Array(freqs.length);
+  for (let i = 0; i < freqs.length; i++) {
+    solver.solve(freqs[i], 'voltage', sol, false);
+    if (sol.portBad[1]) {
+      throw numError(
+        `the transfer function is unbounded at ${describeFrequency(freqs[i])} (a loss-free resonance lands exactly ` +
+          'on this frequency); add the parts\u2019 ESR/DCR or a damping resistor.',
+      );
+    }
+    re[i] = sol.port[2];
+    im[i] = sol.port[3];
+  }
+  return { re, im };
+}
