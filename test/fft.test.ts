@@ -1,5 +1,5 @@
 import { complex, fft as mfft, Complex } from 'mathjs';
-import { evaluateOnGrid, fft, realSpectrum } from '../src/core/fft';
+import { evaluateOnGrid, fastLength, fft, realSpectrum } from '../src/core/fft';
 import { HcError } from '../src/core/errors';
 import { makeSpectrum } from '../src/core/spectrum';
 
@@ -56,8 +56,8 @@ function directDft(re: Float64Array, im: Float64Array, sign: number): [Float64Ar
 
 describe('fft (any length)', () => {
   const mathjsLengths = [1, 2, 3, 5, 7, 8, 12, 100, 1000, 1024, 3 * 1024];
-  // Extra shapes: 2·3·5 mixed, odd composite, prime, twice a large prime (Bluestein).
-  const lengths = [...mathjsLengths, 4 * 81 * 5, 7 * 11 * 13, 9, 25, 6, 10, 20, 997, 2 * 4099];
+  // Extra shapes: radix 4/2/3/5 mixes, generic small-prime stages (7…31), primes above 31 (Bluestein).
+  const lengths = [...mathjsLengths, 4 * 81 * 5, 7 * 11 * 13, 2 * 23 * 29, 62, 9, 25, 6, 10, 20, 37, 997, 2 * 4099];
 
   test.each(mathjsLengths)('matches mathjs fft at length %i', (n) => {
     // Independent implementation: mathjs fft, common practice, no source.
@@ -138,6 +138,22 @@ describe('realSpectrum', () => {
     expect(s.im[3]).toBeCloseTo(0.7, 13); // −0.7 sin = Re(0.7j·e^{j3ωt})
     expect(s.re[5]).toBeCloseTo(0.4 * Math.cos(-1), 13);
     expect(s.im[5]).toBeCloseTo(0.4 * Math.sin(-1), 13);
+  });
+
+  test.each([1 << 16, 3 << 15, 5 * 3 * 4096 + 1])('large count %i keeps 1e-13 accuracy', (M) => {
+    const x = Float64Array.from({ length: M }, (_, k) => shape(k / M));
+    const s = realSpectrum(x, 10000, 1);
+    const want = [1.5, 2 * Math.cos(0.3), 0, 0, 0, 0.4 * Math.cos(-1)];
+    const wantIm = [0, 2 * Math.sin(0.3), 0, 0.7, 0, 0.4 * Math.sin(-1)];
+    let err = 0;
+    for (let n = 0; n <= 10000; n++) {
+      err = Math.max(err, Math.abs(s.re[n] - (want[n] ?? 0)), Math.abs(s.im[n] - (wantIm[n] ?? 0)));
+    }
+    expect(err).toBeLessThan(1e-13);
+  });
+
+  test('values whose magnitudes overflow when summed are a NUM error, not Infinity', () => {
+    expect(() => realSpectrum(Float64Array.of(1e308, 1e308, -1e308, 0), 1, 1)).toThrow(/too large/);
   });
 
   test('Nyquist row of an even count is X[M/2]/M, real', () => {
@@ -226,6 +242,16 @@ describe('evaluateOnGrid', () => {
     expect(err).toBeLessThan(1e-12);
   });
 
+  test('N = 2000 on 4096 and 4050 points (the PEAK use) matches the direct sum', () => {
+    const s = spectrum(2000, 99);
+    for (const P of [4096, 4050, 4001]) {
+      const y = evaluateOnGrid(s, P);
+      let err = 0;
+      for (let k = 0; k < P; k += 37) err = Math.max(err, Math.abs(y[k] - direct(s, k / (P * s.f0))));
+      expect(err).toBeLessThan(1e-12);
+    }
+  });
+
   test('writes into a supplied buffer and agrees with realSpectrum', () => {
     const M = 64;
     const x = Float64Array.from({ length: M }, (_, k) => Math.exp(Math.cos((2 * Math.PI * k) / M)));
@@ -239,5 +265,23 @@ describe('evaluateOnGrid', () => {
   test('bad point counts are NUM errors', () => {
     expect(() => evaluateOnGrid(makeSpectrum(1, 2), 0)).toThrow(HcError);
     expect(() => evaluateOnGrid(makeSpectrum(1, 2), 2.5)).toThrow(HcError);
+  });
+});
+
+describe('fastLength', () => {
+  test('smallest 2^a·3^b·5^c at or above n', () => {
+    expect([1, 2, 7, 11, 17, 4001, 4096, 4097, 10001].map(fastLength)).toEqual([1, 2, 8, 12, 18, 4050, 4096, 4320, 10125]);
+    for (let n = 1; n < 3000; n += 13) {
+      const m = fastLength(n);
+      expect(m).toBeGreaterThanOrEqual(n);
+      let r = m;
+      for (const p of [2, 3, 5]) while (r % p === 0) r /= p;
+      expect(r).toBe(1);
+      for (let k = n; k < m; k++) {
+        let q = k;
+        for (const p of [2, 3, 5]) while (q % p === 0) q /= p;
+        expect(q).not.toBe(1);
+      }
+    }
   });
 });

@@ -91,6 +91,15 @@ describe('standard waveforms (REFERENCES.md table)', () => {
     expect(Math.abs(s.re[1])).toBeLessThan(1e-15);
   });
 
+  test('square partial sums overshoot to the Wilbraham–Gibbs value 2·Si(π)/π = 1.17898', () => {
+    // Gibbs phenomenon, REFERENCES.md (Wilbraham–Gibbs constant, e.g. MathWorld)
+    const N = 999;
+    const s = pulse(-1, 1, 0.5, 1, N);
+    let peak = -Infinity;
+    for (let k = 1; k <= 300; k++) peak = Math.max(peak, at(s, (k / 300) * (3 / N)));
+    expect(peak).toBeCloseTo(1.17898, 3);
+  });
+
   test('triangle ±A: a_n = 8A/(π²n²) odd n, DC 0, RMS A/√3, crest √3, THD √(π⁴/96 − 1)', () => {
     const N = 2000;
     const s = ramp(-A, A, f, N, 0.5);
@@ -481,6 +490,16 @@ describe('combine', () => {
     expect(dc.re[0]).toBe(1);
   });
 
+  test('three fundamentals 50, 75 and 100 Hz share 25 Hz', () => {
+    const c = combine([sine(1, 50), sine(2, 75), rectified(1, 100, 2)]);
+    expect(c.f0).toBeCloseTo(25, 12);
+    expect(c.re.length).toBe(9);
+    expect(c.re[2]).toBe(1);
+    expect(c.re[3]).toBe(2);
+    expect(c.re[8]).toBeCloseTo(rectified(1, 100, 2).re[2], 15);
+    expect(c.re[0]).toBeCloseTo((2 / Math.PI) * 1, 15);
+  });
+
   test('errors: no common fundamental within the harmonic limit; bad lists', () => {
     let e: unknown;
     try {
@@ -518,6 +537,14 @@ describe('argument errors (HcError codes)', () => {
     ['rectified frequency', () => rectified(1, 0, 5), 'NUM'],
   ])('%s', (_name, f, code) => {
     expect(codeOf(f)).toBe(code);
+  });
+
+  test('overflowing products are a NUM error, never Infinity', () => {
+    expect(codeOf(() => pulse(-1e308, 1e308, 0.5, 50, 5))).toBe('NUM');
+    expect(codeOf(() => ramp(-1e308, 1e308, 50, 5))).toBe('NUM');
+    expect(codeOf(() => rectified(1.5e308, 50, 5))).toBe('NUM');
+    expect(codeOf(() => pwl([0, 1], [1e308, 1e308], 5))).toBe('NUM');
+    expect(codeOf(() => combine([sine(1e308, 50), sine(1e308, 50)]))).toBe('NUM');
   });
 
   test('edges that exactly fill the shorter time are allowed (a triangle)', () => {

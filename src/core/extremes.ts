@@ -120,10 +120,12 @@ export function gridSize(N: number): number {
 }
 
 /* ------------------------------------------------------------------------------------------------------ */
-/* The function whose extremes are searched: a partial sum plus closed-form sawtooths                        */
+/* The function whose extremes are searched: a partial sum plus closed-form jump and kink terms              */
 
 /**
- * f(θ) = partial sum (re, im) + Σ_k size[k]·saw(θ − at[k]), saw(φ) = ½ − φ/2π on (0, 2π), 0 at the jump.
+ * f(θ) = partial sum (re, im) + Σ_k [ size[k]·saw(φ_k) + bend[k]·kink(φ_k) ], φ_k = (θ − at[k]) mod 2π, with
+ *   saw(φ)  = ½ − φ/2π            (Σ sin nφ/(πn): a jump of +1 at 0, zero mean; 0 at the jump itself),
+ *   kink(φ) = −π/6 + φ/2 − φ²/4π   (−Σ cos nφ/(πn²): a slope jump of +1 at 0, continuous, zero mean).
  * `at` is sorted ascending in [0, 2π). Without jumps f is the partial sum itself.
  */
 interface Model {
@@ -132,26 +134,32 @@ interface Model {
   N: number;
   at: Float64Array;
   size: Float64Array;
-  slope: number; // −Σ size / 2π: the derivative of the sawtooth part
+  bend: Float64Array;
 }
 
-function sawSum(m: Model, theta: number): number {
-  let v = 0;
-  for (let k = 0; k < m.at.length; k++) {
-    const phi = (theta - m.at[k]) / TWO_PI;
-    const f = phi - Math.floor(phi);
-    if (f !== 0) v += m.size[k] * (0.5 - f);
+const noJumps = (re: Float64Array, im: Float64Array, N: number): Model => ({
+  re, im, N, at: new Float64Array(0), size: new Float64Array(0), bend: new Float64Array(0),
+});
+
+/** Adds the closed-form terms and their derivatives at θ to out (jump midpoint at a jump). */
+function addClosedForms(m: Model, theta: number, out: Float64Array): void {
+  const K = m.at.length;
+  for (let k = 0; k < K; k++) {
+    let phi = (theta - m.at[k]) % TWO_PI;
+    if (phi < 0) phi += TWO_PI;
+    const saw = phi === 0 ? 0 : 0.5 - phi / TWO_PI;
+    const J = m.size[k];
+    const S = m.bend[k];
+    out[0] += J * saw + S * (-Math.PI / 6 + phi / 2 - (phi * phi) / (2 * TWO_PI));
+    out[1] += -J / TWO_PI + S * saw;
+    out[2] += -S / TWO_PI;
   }
-  return v;
 }
 
-/** f, f′, f″ at θ into out (the jump midpoint at a jump). */
+/** f, f′, f″ at θ into out (at a jump: the midpoint value, and the mean of the one-sided slopes). */
 function evalModel(m: Model, theta: number, out: Float64Array): void {
   evalSeries(m.re, m.im, m.N, theta, out);
-  if (m.at.length > 0) {
-    out[0] += sawSum(m, theta);
-    out[1] += m.slope;
-  }
+  if (m.at.length > 0) addClosedForms(m, theta, out);
 }
 
 /* ------------------------------------------------------------------------------------------------------ */
@@ -198,19 +206,22 @@ function newtonMax(m: Model, sigma: number, lo: number, hi: number, x: number, b
  * Maximum of σ·f on [a, b] when the end slopes do not bracket it (σf′ has the same sign at both ends but
  * the interpolant shows an interior max-min pair): sample, then Newton inside the first sign change.
  */
-function searchInterval(m: Model, sigma: number, a: number, b: number, buf: Float64Array, best: Found): void {
+function searchInterval(m: Model, sigma: number, a: number, b: number, ga: number, gb: number, buf: Float64Array, best: Found): void {
+  // Only interior points are evaluated (an end may be a jump, whose one-sided slopes are ga and gb).
   const S = 16;
   let prevT = a;
-  evalModel(m, a, buf);
-  let prevG = sigma * buf[1];
+  let prevG = ga;
   for (let i = 1; i <= S; i++) {
-    const t = a + ((b - a) * i) / S;
-    evalModel(m, t, buf);
-    if (sigma * buf[0] > sigma * best.value) {
-      best.value = buf[0];
-      best.theta = t;
+    const t = i < S ? a + ((b - a) * i) / S : b;
+    let gt = gb;
+    if (i < S) {
+      evalModel(m, t, buf);
+      if (sigma * buf[0] > sigma * best.value) {
+        best.value = buf[0];
+        best.theta = t;
+      }
+      gt = sigma * buf[1];
     }
-    const gt = sigma * buf[1];
     if (prevG > 0 && gt < 0) {
       newtonMax(m, sigma, prevT, t, 0.5 * (prevT + t), buf, best);
       return;
@@ -310,8 +321,14 @@ function scanModel(m: Model): Scan {
     }
     count = P + 1;
   } else {
-    addSawtooths(m, val, P);
     const buf = new Float64Array(3);
+    for (let i = 0; i < P; i++) {
+      buf[0] = 0;
+      buf[1] = 0;
+      addClosedForms(m, i * h, buf);
+      val[i] += buf[0];
+      der[i] += buf[1];
+    }
     const limMid = new Float64Array(K);
     const limDer = new Float64Array(K);
     for (let k = 0; k < K; k++) {
@@ -323,19 +340,20 @@ function scanModel(m: Model): Scan {
       const a0 = m.at[k];
       const k1 = (k + 1) % K;
       const a1 = k + 1 < K ? m.at[k + 1] : m.at[0] + TWO_PI;
+      // One-sided limits: the kink's slope is ±½ on either side of its own jump.
       pos[count] = a0;
       fv[count] = limMid[k] + 0.5 * m.size[k];
-      fd[count] = limDer[k];
+      fd[count] = limDer[k] + 0.5 * m.bend[k];
       link[count++] = 1;
       for (let i = Math.floor(a0 / h) + 1; i * h < a1; i++) {
         pos[count] = i * h;
         fv[count] = val[i % P];
-        fd[count] = der[i % P] + m.slope;
+        fd[count] = der[i % P];
         link[count++] = 1;
       }
       pos[count] = a1;
       fv[count] = limMid[k1] - 0.5 * m.size[k1];
-      fd[count] = limDer[k1];
+      fd[count] = limDer[k1] - 0.5 * m.bend[k1];
       link[count++] = 0;
     }
   }
@@ -348,7 +366,10 @@ function scanModel(m: Model): Scan {
 
   let hMax = h;
   for (let i = 0; i + 1 < count; i++) if (link[i]) hMax = Math.max(hMax, pos[i + 1] - pos[i]);
-  const bound = (m4 * hMax ** 4) / 384 + 1e-13 * m0;
+  // What refinement can still gain over an interval's Hermite estimate, and the rounding floor of the sums:
+  // an interval is refined only when it could beat the best value by more than that floor.
+  const bound = (m4 * hMax ** 4) / 384;
+  const floor = 1e-13 * m0;
   const buf = new Float64Array(3);
   const best: Found = { value: 0, theta: 0 };
   const sArg = new Float64Array(1);
@@ -363,7 +384,7 @@ function scanModel(m: Model): Scan {
       if (!link[i]) continue;
       const len = pos[i + 1] - pos[i];
       const e = hermiteMax(sigma, fv[i], fd[i], fv[i + 1], fd[i + 1], len, sArg);
-      if (e + bound > top) {
+      if (e + bound > top + floor) {
         est[i] = e;
         arg[i] = pos[i] + sArg[0] * len;
         cand.push(i);
@@ -371,13 +392,13 @@ function scanModel(m: Model): Scan {
     }
     cand.sort((p, q) => est[q] - est[p]);
     for (const i of cand) {
-      if (est[i] + bound <= top) break;
+      if (est[i] + bound <= top + floor) break;
       best.value = sigma * top;
       best.theta = sigma > 0 ? res.thMax : res.thMin;
       const ga = sigma * fd[i];
       const gb = sigma * fd[i + 1];
       if (ga > 0 && gb < 0) newtonMax(m, sigma, pos[i], pos[i + 1], arg[i], buf, best);
-      else searchInterval(m, sigma, pos[i], pos[i + 1], buf, best);
+      else searchInterval(m, sigma, pos[i], pos[i + 1], ga, gb, buf, best);
       if (sigma * best.value > top) {
         top = sigma * best.value;
         if (sigma > 0) { res.max = best.value; res.thMax = best.theta; }
@@ -390,53 +411,36 @@ function scanModel(m: Model): Scan {
   return res;
 }
 
-/**
- * Add the sawtooth part to the grid values (one sweep over the sorted jumps). With u = θ/2π:
- * Σ J_k(½ − frac(u − u_k)) = S(½ − u) + Σ J_k u_k − Σ_{u_k > u} J_k, and the jump midpoint where u = u_k.
- */
-function addSawtooths(m: Model, grid: Float64Array, P: number): void {
-  const K = m.at.length;
-  let S = 0;
-  let SU = 0;
-  let suffix = 0; // Σ J_k over u_k > u
-  const u = new Float64Array(K);
-  for (let k = 0; k < K; k++) {
-    u[k] = m.at[k] / TWO_PI;
-    S += m.size[k];
-    SU += m.size[k] * u[k];
-    suffix += m.size[k];
-  }
-  let k = 0;
-  for (let i = 0; i < P; i++) {
-    const ui = i / P;
-    let eq = 0;
-    while (k < K && u[k] <= ui) {
-      suffix -= m.size[k];
-      if (u[k] === ui) eq += m.size[k];
-      k++;
-    }
-    grid[i] += S * (0.5 - ui) + SU - suffix - 0.5 * eq;
-  }
-}
-
 /* ------------------------------------------------------------------------------------------------------ */
 /* Jump estimation                                                                                           */
 
 /** Below this order the tail is too short to tell jumps from smooth features. */
 const MIN_JUMP_ORDER = 16;
-/** Tail energy ratio (top half / quarter below) above which the spectrum is treated as having jumps. */
-const JUMP_TAIL_RATIO = 0.5;
+/**
+ * Mean |d_n|² over the top half of the harmonics relative to that over (N/8, N/2]: about 1 with jumps
+ * (≥ 0.35 even for a 1 % pulse), 1/8 for 1/n² spectra (≤ 0.2 for a triangle or rectified sine at any N ≥ 16).
+ */
+const JUMP_TAIL_RATIO = 0.3;
 /** A fitted model must explain all but this fraction of the tail energy. */
 const MAX_UNEXPLAINED = 0.05;
+/** A fit this close is exact up to rounding: the waveform is jumps plus a band-limited part. */
+const EXACT_FIT = 1e-9;
 const MAX_JUMPS = 32;
+/**
+ * Jumps below this fraction of the largest are dropped: their ringing (≤ 9 % of them) is negligible, and
+ * such small fitted jumps are more often a smooth part leaking into the fit than a real edge.
+ */
+const DROP_JUMP = 1e-3;
 const MAX_FIT_BAND = 2048;
 
 export interface Jumps {
   /** Jump phases θ = ωt in [0, 2π), ascending. */
   at: Float64Array;
-  /** Jump sizes (value just after minus value just before). */
+  /** Jump sizes: value just after minus value just before. */
   size: Float64Array;
-  /** Fraction of the fitted tail energy the jumps leave unexplained. */
+  /** Slope jumps at the same places, in value per radian of ωt: slope just after minus just before. */
+  bend: Float64Array;
+  /** Fraction of the tail energy (n ≥ N/4) the fitted model leaves unexplained. */
   unexplained: number;
 }
 
@@ -449,7 +453,7 @@ function bandEnergy(zr: Float64Array, zi: Float64Array, from: number, to: number
 
 /** True when the coefficients d_n (= jπn·C_n) keep their level over the top harmonics, as jumps make them. */
 function looksLikeJumps(dr: Float64Array, di: Float64Array, N: number, minLevel: number): boolean {
-  const q = Math.floor(N / 4);
+  const q = Math.floor(N / 8);
   const hlf = Math.floor(N / 2);
   const eU = bandEnergy(dr, di, hlf, N);
   const eM = bandEnergy(dr, di, q, hlf);
@@ -464,16 +468,17 @@ function looksLikeJumps(dr: Float64Array, di: Float64Array, N: number, minLevel:
 }
 
 /**
- * Jump function estimate G(θ) = Σ w_n Re(e_n e^{jnθ}) / Σ w_n with a Hann window over n = 1..N, on the
- * grid: ≈ J near a jump J, small elsewhere (the window keeps the side lobes below 3 %).
+ * Jump function estimate G(θ) = Σ w_n Re(e_n e^{jnθ}) / Σ w_n on the grid, w_n = cos²(πn / 2(N+1)) (the
+ * low-pass half of a Hann window): ≈ J at a jump J, a main lobe of half width 2π/N and side lobes below 5 %.
+ * (Weights vanishing at n = 0 would suppress smooth parts better but make the kernel ring.)
  */
 function concentration(er: Float64Array, ei: Float64Array, N: number, P: number, out: Float64Array): Float64Array {
   const re = new Float64Array(N + 1);
   const im = new Float64Array(N + 1);
   let sw = 0;
   for (let n = 1; n <= N; n++) {
-    const s = Math.sin((Math.PI * n) / (N + 1));
-    const w = s * s;
+    const c = Math.cos((Math.PI * n) / (2 * (N + 1)));
+    const w = c * c;
     sw += w;
     re[n] = w * er[n];
     im[n] = w * ei[n];
@@ -484,89 +489,119 @@ function concentration(er: Float64Array, ei: Float64Array, N: number, P: number,
   return g;
 }
 
+/** Rotation recurrence for E_k(n) = e^{−jnθ_k}, k = 0..K−1, re-seeded every RESEED harmonics. */
+class Phasors {
+  readonly er: Float64Array;
+  readonly ei: Float64Array;
+  private readonly cr: Float64Array;
+  private readonly ci: Float64Array;
+  private th: Float64Array;
+  private start = 0;
+  constructor(K: number) {
+    this.er = new Float64Array(K);
+    this.ei = new Float64Array(K);
+    this.cr = new Float64Array(K);
+    this.ci = new Float64Array(K);
+    this.th = this.er;
+  }
+  /** Prepare for n = from, from+1, …; call at(n) for each n in turn. */
+  begin(th: Float64Array, from: number): void {
+    this.th = th;
+    this.start = from;
+    for (let k = 0; k < th.length; k++) {
+      this.cr[k] = Math.cos(th[k]);
+      this.ci[k] = -Math.sin(th[k]);
+    }
+  }
+  at(n: number): void {
+    const { er, ei, cr, ci, th } = this;
+    if ((n - this.start) % RESEED === 0) {
+      for (let k = 0; k < th.length; k++) {
+        er[k] = Math.cos(n * th[k]);
+        ei[k] = -Math.sin(n * th[k]);
+      }
+    } else {
+      for (let k = 0; k < th.length; k++) {
+        const t = er[k] * cr[k] - ei[k] * ci[k];
+        ei[k] = er[k] * ci[k] + ei[k] * cr[k];
+        er[k] = t;
+      }
+    }
+  }
+}
+
 /**
- * Least-squares fit of d_n ≈ Σ_k J_k e^{−jnθ_k} over n in [nLo, N] with weights (n/N)², all J and θ
- * together (Levenberg–Marquardt). Updates J and th in place; returns the weighted residual energy.
+ * Least-squares fit of d_n ≈ Σ_k e^{−jnθ_k}(J_k − j·S_k/n) over n in [nLo, N] with weights (n/N)²: jumps J,
+ * slope jumps S and places θ together (Levenberg–Marquardt; the 1/n term is the next order of the Fourier
+ * asymptotics, so an exponential settling after an edge does not bias the edge). Updates p in place
+ * (p = [J…, S…, θ…]).
  */
-function fitJumps(dr: Float64Array, di: Float64Array, N: number, nLo: number, J: Float64Array, th: Float64Array): number {
-  const K = J.length;
-  const D = 2 * K;
+function fitJumps(dr: Float64Array, di: Float64Array, N: number, nLo: number, p: Float64Array): void {
+  const K = p.length / 3;
+  const D = 3 * K;
   const A = new Float64Array(D * D);
   const g = new Float64Array(D);
   const M = new Float64Array(D * D);
   const delta = new Float64Array(D);
-  const er = new Float64Array(K);
-  const ei = new Float64Array(K);
-  const cr = new Float64Array(K);
-  const ci = new Float64Array(K);
-  const pr = new Float64Array(D); // partial derivatives of the residual, real and imaginary
-  const pi = new Float64Array(D);
-  const J2 = new Float64Array(K);
-  const th2 = new Float64Array(K);
+  const pr = new Float64Array(D); // ∂r_n/∂p, real and imaginary parts
+  const pim = new Float64Array(D);
+  const trial = new Float64Array(D);
+  const E = new Phasors(K);
   const invN2 = 1 / (N * N);
 
-  const seed = (n: number, tt: Float64Array): void => {
-    for (let k = 0; k < K; k++) {
-      er[k] = Math.cos(n * tt[k]);
-      ei[k] = -Math.sin(n * tt[k]);
-    }
-  };
-  const step = (tt: Float64Array): void => {
-    for (let k = 0; k < K; k++) {
-      cr[k] = Math.cos(tt[k]);
-      ci[k] = -Math.sin(tt[k]);
-    }
-  };
-  const advance = (): void => {
-    for (let k = 0; k < K; k++) {
-      const t = er[k] * cr[k] - ei[k] * ci[k];
-      ei[k] = er[k] * ci[k] + ei[k] * cr[k];
-      er[k] = t;
-    }
-  };
-  const cost = (JJ: Float64Array, tt: Float64Array): number => {
-    step(tt);
+  const cost = (q: Float64Array): number => {
+    E.begin(q.subarray(2 * K), nLo);
     let F = 0;
     for (let n = nLo; n <= N; n++) {
-      if ((n - nLo) % RESEED === 0) seed(n, tt);
-      else advance();
+      E.at(n);
       let rr = dr[n];
       let ri = di[n];
       for (let k = 0; k < K; k++) {
-        rr -= JJ[k] * er[k];
-        ri -= JJ[k] * ei[k];
+        const J = q[k];
+        const s = q[K + k] / n;
+        rr -= E.er[k] * J + E.ei[k] * s;
+        ri -= E.ei[k] * J - E.er[k] * s;
       }
       F += n * n * invN2 * (rr * rr + ri * ri);
     }
     return F;
   };
 
-  let F = cost(J, th);
+  let F = cost(p);
+  let energy = 0;
+  for (let n = nLo; n <= N; n++) energy += n * n * invN2 * (dr[n] * dr[n] + di[n] * di[n]);
+  const floorF = (1e-15 * N) ** 2 * energy; // the phases nθ carry ~N ulp of rounding
   let lambda = 1e-3;
-  for (let iter = 0; iter < 60; iter++) {
+  for (let iter = 0; iter < 60 && F > floorF; iter++) {
     A.fill(0);
     g.fill(0);
-    step(th);
+    E.begin(p.subarray(2 * K), nLo);
     for (let n = nLo; n <= N; n++) {
-      if ((n - nLo) % RESEED === 0) seed(n, th);
-      else advance();
+      E.at(n);
       const w = n * n * invN2;
       let rr = dr[n];
       let ri = di[n];
       for (let k = 0; k < K; k++) {
-        rr -= J[k] * er[k];
-        ri -= J[k] * ei[k];
-        // ∂r/∂J_k = −E_k; ∂r/∂θ_k = jn·J_k·E_k
-        pr[k] = -er[k];
-        pi[k] = -ei[k];
-        pr[K + k] = -n * J[k] * ei[k];
-        pi[K + k] = n * J[k] * er[k];
+        const er = E.er[k];
+        const ei = E.ei[k];
+        const J = p[k];
+        const S = p[K + k];
+        const s = S / n;
+        rr -= er * J + ei * s;
+        ri -= ei * J - er * s;
+        // r = d − E(J − jS/n): ∂r/∂J = −E, ∂r/∂S = jE/n, ∂r/∂θ = E(S + jnJ).
+        pr[k] = -er;
+        pim[k] = -ei;
+        pr[K + k] = -ei / n;
+        pim[K + k] = er / n;
+        pr[2 * K + k] = er * S - ei * n * J;
+        pim[2 * K + k] = ei * S + er * n * J;
       }
       for (let a = 0; a < D; a++) {
         const xa = w * pr[a];
-        const ya = w * pi[a];
+        const ya = w * pim[a];
         g[a] -= xa * rr + ya * ri;
-        for (let b = a; b < D; b++) A[a * D + b] += xa * pr[b] + ya * pi[b];
+        for (let b = a; b < D; b++) A[a * D + b] += xa * pr[b] + ya * pim[b];
       }
     }
     for (let a = 0; a < D; a++) for (let b = 0; b < a; b++) A[a * D + b] = A[b * D + a];
@@ -579,26 +614,21 @@ function fitJumps(dr: Float64Array, di: Float64Array, N: number, nLo: number, J:
         lambda *= 10;
         continue;
       }
-      for (let k = 0; k < K; k++) {
-        J2[k] = J[k] + delta[k];
-        th2[k] = th[k] + delta[K + k];
-      }
-      const F2 = cost(J2, th2);
+      for (let a = 0; a < D; a++) trial[a] = p[a] + delta[a];
+      const F2 = cost(trial);
       if (F2 < F) {
         improved = true;
-        const rel = (F - F2) / (F || 1);
-        J.set(J2);
-        th.set(th2);
+        const rel = (F - F2) / F;
+        p.set(trial);
         F = F2;
         lambda = Math.max(lambda / 10, 1e-12);
         let maxStep = 0;
-        for (let k = 0; k < K; k++) maxStep = Math.max(maxStep, Math.abs(delta[K + k]));
-        if (maxStep * N < 1e-13 || rel < 1e-15) return F;
+        for (let k = 0; k < K; k++) maxStep = Math.max(maxStep, Math.abs(delta[2 * K + k]));
+        if (rel < 1e-12 || (rel < 1e-6 && maxStep * N < 1e-7)) return;
       } else lambda *= 10;
     }
-    if (!improved) break;
+    if (!improved) return;
   }
-  return F;
 }
 
 /** Solve M·x = b (M symmetric positive definite, overwritten by its Cholesky factor). */
@@ -629,28 +659,80 @@ function choleskySolve(M: Float64Array, b: Float64Array, x: Float64Array, D: num
   return true;
 }
 
-/** e_n = d_n − Σ J_k e^{−jnθ_k} for n = 1..N. */
-function residual(dr: Float64Array, di: Float64Array, N: number, J: Float64Array, th: Float64Array, outR: Float64Array, outI: Float64Array): void {
-  outR.set(dr);
-  outI.set(di);
-  for (let k = 0; k < J.length; k++) {
-    const c = Math.cos(th[k]);
-    const s = -Math.sin(th[k]);
-    let zr = 1;
-    let zi = 0;
-    for (let n = 1; n <= N; n++) {
-      if ((n - 1) % RESEED === 0) {
-        zr = Math.cos(n * th[k]);
-        zi = -Math.sin(n * th[k]);
-      } else {
-        const t = zr * c - zi * s;
-        zi = zr * s + zi * c;
-        zr = t;
-      }
-      outR[n] -= J[k] * zr;
-      outI[n] -= J[k] * zi;
+/** e_n = d_n − Σ_k e^{−jnθ_k}(J_k − jS_k/n) for n = 1..N. */
+function residual(dr: Float64Array, di: Float64Array, N: number, p: Float64Array, outR: Float64Array, outI: Float64Array): void {
+  const K = p.length / 3;
+  const E = new Phasors(K);
+  E.begin(p.subarray(2 * K), 1);
+  outR[0] = 0;
+  outI[0] = 0;
+  for (let n = 1; n <= N; n++) {
+    E.at(n);
+    let rr = dr[n];
+    let ri = di[n];
+    for (let k = 0; k < K; k++) {
+      const s = p[K + k] / n;
+      rr -= E.er[k] * p[k] + E.ei[k] * s;
+      ri -= E.ei[k] * p[k] - E.er[k] * s;
     }
+    outR[n] = rr;
+    outI[n] = ri;
   }
+}
+
+const maxAbs = (a: Float64Array): number => {
+  let m = 0;
+  for (let k = 0; k < a.length; k++) m = Math.max(m, Math.abs(a[k]));
+  return m;
+};
+
+function circDist(a: number, b: number): number {
+  const d = Math.abs(a - b) % TWO_PI;
+  return Math.min(d, TWO_PI - d);
+}
+
+/** Parameters [J…, S…, θ…] from lists. */
+function pack(J: ArrayLike<number>, S: ArrayLike<number>, th: ArrayLike<number>): Float64Array {
+  const K = J.length;
+  const p = new Float64Array(3 * K);
+  for (let k = 0; k < K; k++) {
+    p[k] = J[k];
+    p[K + k] = S[k];
+    p[2 * K + k] = th[k];
+  }
+  return p;
+}
+
+/**
+ * Wrap phases into [0, 2π), sort, merge jumps that converged onto one place and drop negligible ones.
+ * Returns the (possibly shorter) parameter vector.
+ */
+function tidy(p: Float64Array, N: number): Float64Array {
+  const K = p.length / 3;
+  const big = maxAbs(p.subarray(0, K));
+  const th = Array.from(p.subarray(2 * K), (t) => t - TWO_PI * Math.floor(t / TWO_PI));
+  const idx = th.map((_, k) => k).sort((a, b) => th[a] - th[b]);
+  const J: number[] = [];
+  const S: number[] = [];
+  const at: number[] = [];
+  for (const k of idx) {
+    if (!(Math.abs(p[k]) > DROP_JUMP * big)) continue;
+    const last = at.length - 1;
+    if (last >= 0 && circDist(at[last], th[k]) < 1e-3 / N) {
+      J[last] += p[k];
+      S[last] += p[K + k];
+      continue;
+    }
+    J.push(p[k]);
+    S.push(p[K + k]);
+    at.push(th[k]);
+  }
+  if (at.length > 1 && circDist(at[0], at[at.length - 1]) < 1e-3 / N) {
+    J[0] += J.pop() as number;
+    S[0] += S.pop() as number;
+    at.pop();
+  }
+  return pack(J, S, at);
 }
 
 /**
@@ -668,68 +750,59 @@ export function findJumps(s: Spectrum): Jumps | null {
     di[n] = Math.PI * n * s.re[n];
     ac += s.re[n] * s.re[n] + s.im[n] * s.im[n];
   }
-  const scale = Math.sqrt(ac / 2);
-  if (!looksLikeJumps(dr, di, N, 1e-8 * scale)) return null;
+  if (!looksLikeJumps(dr, di, N, 1e-8 * Math.sqrt(ac / 2))) return null;
 
   const nLo = Math.max(1, Math.floor(N / 4), N - MAX_FIT_BAND + 1);
-  const maxJumps = Math.min(MAX_JUMPS, Math.floor((N - nLo + 1) / 6));
+  // At least 4 harmonics (8 real values) per jump's 3 parameters.
+  const maxJumps = Math.min(MAX_JUMPS, Math.floor((N - nLo + 1) / 4));
   const P = gridSize(N);
   const G = new Float64Array(P);
-  const er = new Float64Array(N + 1);
-  const ei = new Float64Array(N + 1);
-  er.set(dr);
-  ei.set(di);
-  let J: Float64Array = new Float64Array(0);
-  let th: Float64Array = new Float64Array(0);
-  const sep = (2 * TWO_PI) / N; // Hann main-lobe half width: closer peaks are one feature
+  const er = Float64Array.from(dr);
+  const ei = Float64Array.from(di);
+  let p = new Float64Array(0);
+  const sep = (1.5 * TWO_PI) / N; // beyond the kernel's main lobe: closer peaks are one feature
 
-  for (let round = 0; round < 4 && J.length < maxJumps; round++) {
+  for (let round = 0; round < 4; round++) {
+    const K = p.length / 3;
+    if (K >= maxJumps) break;
     // Chase further jumps only while the residual still looks like jumps of some size.
-    if (round > 0 && !looksLikeJumps(er, ei, N, 1e-4 * maxAbs(J))) break;
+    if (round > 0 && !looksLikeJumps(er, ei, N, DROP_JUMP * maxAbs(p.subarray(0, K)))) break;
     concentration(er, ei, N, P, G);
     let gBig = 0;
     for (let i = 0; i < P; i++) gBig = Math.max(gBig, Math.abs(G[i]));
     if (!(gBig > 0)) break;
-    const newAt: number[] = [];
-    const newJ: number[] = [];
+    const found: { at: number; size: number }[] = [];
     for (let i = 0; i < P; i++) {
       const v = Math.abs(G[i]);
       if (v < 0.2 * gBig) continue;
       const vp = Math.abs(G[(i + P - 1) % P]);
       const vn = Math.abs(G[(i + 1) % P]);
       if (!(v >= vp && v > vn)) continue;
-      // Parabolic interpolation of the peak position.
-      const den = vp - 2 * v + vn;
+      const den = vp - 2 * v + vn; // parabolic interpolation of the peak
       const off = den < 0 ? (0.5 * (vp - vn)) / den : 0;
       const t = ((i + off) * TWO_PI) / P;
       let near = false;
-      for (let k = 0; k < th.length; k++) if (circDist(t, th[k]) < sep) near = true;
-      if (near) continue;
-      newAt.push(t);
-      newJ.push(G[i]);
+      for (let k = 0; k < K; k++) if (circDist(t, p[2 * K + k]) < sep) near = true;
+      if (!near) found.push({ at: t, size: G[i] });
     }
-    if (newAt.length === 0) break;
-    // Strongest first, up to the cap.
-    const order_ = newAt.map((_, k) => k).sort((a, b) => Math.abs(newJ[b]) - Math.abs(newJ[a]));
-    const take = Math.min(order_.length, maxJumps - J.length);
-    const J2 = new Float64Array(J.length + take);
-    const th2 = new Float64Array(J.length + take);
-    J2.set(J);
-    th2.set(th);
-    for (let k = 0; k < take; k++) {
-      J2[J.length + k] = newJ[order_[k]];
-      th2[J.length + k] = newAt[order_[k]];
-    }
-    J = J2;
-    th = th2;
-    fitJumps(dr, di, N, nLo, J, th);
-    [J, th] = tidy(J, th, N);
-    if (J.length === 0) return null;
-    residual(dr, di, N, J, th, er, ei);
+    if (found.length === 0) break;
+    found.sort((a, b) => Math.abs(b.size) - Math.abs(a.size));
+    found.length = Math.min(found.length, maxJumps - K);
+    const J = [...p.subarray(0, K), ...found.map((f) => f.size)];
+    const S = [...p.subarray(K, 2 * K), ...found.map(() => 0)];
+    const th = [...p.subarray(2 * K), ...found.map((f) => f.at)];
+    p = pack(J, S, th);
+    fitJumps(dr, di, N, nLo, p);
+    const before = p.length;
+    p = tidy(p, N);
+    if (p.length === 0) return null;
+    if (p.length < before) fitJumps(dr, di, N, nLo, p);
+    residual(dr, di, N, p, er, ei);
   }
-  if (J.length === 0) return null;
+  const K = p.length / 3;
+  if (K === 0) return null;
+  for (let a = 0; a < p.length; a++) if (!Number.isFinite(p[a])) return null;
 
-  // Unexplained fraction of the tail energy (unweighted, over the fitted band).
   let eRes = 0;
   let eAll = 0;
   for (let n = nLo; n <= N; n++) {
@@ -738,50 +811,9 @@ export function findJumps(s: Spectrum): Jumps | null {
   }
   const unexplained = eAll > 0 ? eRes / eAll : 1;
   if (!(unexplained <= MAX_UNEXPLAINED)) return null;
-  for (let k = 0; k < J.length; k++) if (!Number.isFinite(J[k]) || !Number.isFinite(th[k])) return null;
-  // Sort by phase.
-  const idx = Array.from(th, (_, k) => k).sort((a, b) => th[a] - th[b]);
-  return {
-    at: Float64Array.from(idx, (k) => th[k]),
-    size: Float64Array.from(idx, (k) => J[k]),
-    unexplained,
-  };
-}
-
-const maxAbs = (a: Float64Array): number => {
-  let m = 0;
-  for (let k = 0; k < a.length; k++) m = Math.max(m, Math.abs(a[k]));
-  return m;
-};
-
-function circDist(a: number, b: number): number {
-  const d = Math.abs(a - b) % TWO_PI;
-  return Math.min(d, TWO_PI - d);
-}
-
-/** Wrap phases into [0, 2π), merge jumps that converged onto one place, drop negligible ones. */
-function tidy(J: Float64Array, th: Float64Array, N: number): [Float64Array, Float64Array] {
-  const big = maxAbs(J);
-  const at: number[] = [];
-  const sz: number[] = [];
-  const idx = Array.from(th, (_, k) => k);
-  for (const k of idx) th[k] -= TWO_PI * Math.floor(th[k] / TWO_PI);
-  idx.sort((a, b) => th[a] - th[b]);
-  for (const k of idx) {
-    if (!(Math.abs(J[k]) > 1e-12 * big)) continue;
-    const last = at.length - 1;
-    if (last >= 0 && circDist(at[last], th[k]) < 1e-3 / N) {
-      sz[last] += J[k];
-      continue;
-    }
-    at.push(th[k]);
-    sz.push(J[k]);
-  }
-  if (at.length > 1 && circDist(at[0], at[at.length - 1]) < 1e-3 / N) {
-    sz[0] += sz.pop() as number;
-    at.pop();
-  }
-  return [Float64Array.from(sz), Float64Array.from(at)];
+  p = tidy(p, N); // sorted by phase
+  const k3 = p.length / 3;
+  return { size: p.slice(0, k3), bend: p.slice(k3, 2 * k3), at: p.slice(2 * k3), unexplained };
 }
 
 /* ------------------------------------------------------------------------------------------------------ */
@@ -796,11 +828,6 @@ function toTimes(s: Spectrum, r: Scan): Extremes {
   return { max: r.max, tMax: tOf(r.thMax), min: r.min, tMin: tOf(r.thMin) };
 }
 
-/** Extremes of the partial sum itself (Gibbs ringing included). */
-function truncatedScan(s: Spectrum): Scan {
-  return scanModel({ re: s.re, im: s.im, N: order(s), at: new Float64Array(0), size: new Float64Array(0), slope: 0 });
-}
-
 /** Extremes of the jump model's estimate, or null when the model is not trusted. */
 function jumpScan(s: Spectrum, raw: Scan): Scan | null {
   const jumps = findJumps(s);
@@ -809,14 +836,13 @@ function jumpScan(s: Spectrum, raw: Scan): Scan | null {
   const re = Float64Array.from(s.re);
   const im = Float64Array.from(s.im);
   im[0] = 0;
-  let total = 0;
   let absTotal = 0;
   for (let k = 0; k < jumps.at.length; k++) {
     const J = jumps.size[k];
+    const S = jumps.bend[k];
     const th = jumps.at[k];
-    total += J;
     absTotal += Math.abs(J);
-    // Subtract J·(−j/(πn))·e^{−jnθ} = (J/(πn))·(−sin nθ − j cos nθ).
+    // Subtract (1/π)·e^{−jnθ}·(J/(jn) + S/(jn)²), the spectra of J·saw and S·kink placed at θ.
     const c = Math.cos(th);
     const sn = Math.sin(th);
     let zr = 1;
@@ -831,15 +857,18 @@ function jumpScan(s: Spectrum, raw: Scan): Scan | null {
         zr = t;
       }
       const a = J / (Math.PI * n);
-      re[n] += a * zi;
-      im[n] += a * zr;
+      const b = S / (Math.PI * n * n);
+      re[n] += a * zi + b * zr;
+      im[n] += a * zr - b * zi;
     }
   }
-  const est = scanModel({ re, im, N, at: jumps.at, size: jumps.size, slope: -total / TWO_PI });
-  // Never move an extreme by more than the ringing the fitted jumps can explain.
-  const bound = GIBBS_OVERSHOOT * absTotal * 1.05 + 1e-9 * (Math.abs(raw.max) + Math.abs(raw.min));
-  if (!(Math.abs(est.max - raw.max) <= bound && Math.abs(est.min - raw.min) <= bound)) return null;
+  const est = scanModel({ re, im, N, at: jumps.at, size: jumps.size, bend: jumps.bend });
   if (!Number.isFinite(est.max) || !Number.isFinite(est.min)) return null;
+  // Never move an extreme by more than the ringing the fitted jumps can explain — unless the fit is exact
+  // to rounding (a pulse narrower than the partial sum resolves stands higher than its partial sum).
+  const bound = GIBBS_OVERSHOOT * absTotal * 1.05 + 1e-9 * (Math.abs(raw.max) + Math.abs(raw.min));
+  const moved = Math.max(Math.abs(est.max - raw.max), Math.abs(est.min - raw.min));
+  if (!(moved <= bound) && !(jumps.unexplained <= EXACT_FIT)) return null;
   return est;
 }
 
@@ -849,10 +878,12 @@ function jumpScan(s: Spectrum, raw: Scan): Scan | null {
  */
 export function extremes(s: Spectrum, opts: ExtremesOptions = {}): Extremes {
   checkSpectrum(s);
-  if (opts === null || typeof opts !== 'object') throw valueError('extremes options must be an object such as { truncated: true }.');
+  if (opts === null || typeof opts !== 'object') {
+    throw valueError('extremes options must be an object such as { truncated: true }.');
+  }
   const truncated = opts.truncated ?? false;
   if (typeof truncated !== 'boolean') throw valueError('truncated must be TRUE or FALSE.');
-  const raw = truncatedScan(s);
+  const raw = scanModel(noJumps(s.re, s.im, order(s)));
   if (truncated) return toTimes(s, raw);
   let est: Scan | null = null;
   try {

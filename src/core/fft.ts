@@ -408,8 +408,13 @@ export function realSpectrum(samples: Float64Array, harmonics: number, f0: numbe
   if (harmonics > nyq) {
     throw numError(`harmonics is ${harmonics}, but ${M} samples per period resolve at most ${nyq} (floor(M/2)).`);
   }
-  for (let k = 0; k < M; k++) {
-    if (!Number.isFinite(samples[k])) throw numError(`samples must be finite numbers; sample ${k + 1} is ${samples[k]}.`);
+  let sum = 0; // one finite sum proves every sample finite and keeps the transform free of overflow
+  for (let k = 0; k < M; k++) sum += Math.abs(samples[k]);
+  if (!Number.isFinite(sum)) {
+    for (let k = 0; k < M; k++) {
+      if (!Number.isFinite(samples[k])) throw numError(`samples must be finite numbers; sample ${k + 1} is ${samples[k]}.`);
+    }
+    throw numError(`samples are too large to transform (the sum of their magnitudes overflows).`);
   }
   const s = makeSpectrum(f0, harmonics);
   const re = s.re;

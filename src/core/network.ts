@@ -16,8 +16,8 @@ import { formatEng } from './units';
  * whose leading terms cancel (a resonance, to within SNAP) moves on to the next order. At the end a quantity
  * with k > 0 is 0, k = 0 is a₀, and k < 0 is unbounded; this is the limit f → f₀, so for instance two
  * capacitors in series share DC voltage inversely to C and two inductors in parallel share DC current
- * inversely to L. At ordinary frequencies only a₀ is carried (one complex number per quantity); the a₁ terms
- * are computed only when a cancellation needs them.
+ * inversely to L. Ordinary frequencies, where nothing cancels, take a plain complex pass instead
+ * (LadderSolver.fastBackward/fastForward) that gives the same numbers.
  */
 
 /** Relative size below which a sum of two terms is taken as an exact cancellation (a loss-free resonance). */
@@ -31,7 +31,7 @@ const A0R = 2;
 const A0I = 3;
 const A1R = 4;
 const A1I = 5;
-/** reg[LOST] is set when a cancellation consumed every reliable term. */
+/** reg[LOST] is set when a sum cancelled in both carried terms (checked at the end of the backward pass). */
 const LOST = 0;
 
 /** Flags in Solution.bad and Solution.portBad. */
@@ -184,7 +184,7 @@ function add(r: Float64Array, d: number, x: number, y: number): void {
   } else if (t > 1 && (s1r !== 0 || s1i !== 0)) {
     setSlot(r, d, k + 1, 1, s1r, s1i, 0, 0); // the leading terms cancelled: the next order leads
   } else {
-    r[LOST] = 1; // needs a term not carried; a harmless stand-in keeps the pass going until it is redone
+    r[LOST] = 1; // would need a third term; a harmless stand-in lets the pass finish before it throws
     setSlot(r, d, 0, 1, 1, 0, 0, 0);
   }
 }
@@ -308,11 +308,7 @@ export class LadderSolver {
       checkRange(out[0], out[1], f);
       return true;
     }
-    for (let terms = f > 0 ? 2 : 1; ; terms++) {
-      this.backward(f, terms);
-      if (this.reg[LOST] === 0) break;
-      if (terms === 2) throw indeterminate(f);
-    }
+    this.backward(f);
     return this.extract(this.lBase, out, 0, f);
   }
 
@@ -331,14 +327,8 @@ export class LadderSolver {
     }
     if (this.lastShunt < 0) return noPath(currentSource, out, elements);
     if (f > 0 && this.fast && this.fastBackward(2 * Math.PI * f) && this.fastForward(currentSource, out, elements, f)) return;
-    for (let terms = f > 0 ? 2 : 1; ; terms++) {
-      this.backward(f, terms);
-      if (this.reg[LOST] === 0) {
-        this.forward(f, currentSource, out, elements);
-        return;
-      }
-      if (terms === 2) throw indeterminate(f);
-    }
+    this.backward(f);
+    this.forward(f, currentSource, out, elements);
   }
 
   // ---- fast pass (f > 0, nothing cancels) ----
@@ -428,7 +418,12 @@ export class LadderSolver {
     out.portBad[0] = out.portBad[1] = 0;
     checkRange(out.port[0], out.port[1], f);
     checkRange(vr, vi, f);
-    if (elements) for (let i = 0; i < table.rows; i++) checkRange(out.vRe[i] + out.vIm[i], out.iRe[i] + out.iIm[i], f);
+    if (elements) {
+      for (let i = 0; i < table.rows; i++) {
+        checkRange(out.vRe[i], out.vIm[i], f);
+        checkRange(out.iRe[i], out.iIm[i], f);
+      }
+    }
     return true;
   }
 
@@ -466,7 +461,7 @@ export class LadderSolver {
   // ---- general pass (DC, resonances) ----
 
   /** Element impedances, branch composites and load impedances, right to left. */
-  private backward(f: number, terms: number): void {
+  private backward(f: number): void {
     const { table, reg: r, values } = this;
     r[LOST] = 0;
     const w = 2 * Math.PI * f;
@@ -479,11 +474,11 @@ export class LadderSolver {
         if (kind === L) setSlot(r, d, 1, 2, v, 0, 0, 0);
         else if (kind === C) setSlot(r, d, -1, 2, 1 / v, 0, 0, 0);
         else setSlot(r, d, 0, 2, v, 0, 0, 0);
-      } else if (kind === L) setSlot(r, d, 0, terms, 0, w * v, 0, v);
+      } else if (kind === L) setSlot(r, d, 0, 2, 0, w * v, 0, v);
       else if (kind === C) {
         const x = 1 / (w * v);
-        setSlot(r, d, 0, terms, 0, -x, 0, x / w);
-      } else setSlot(r, d, 0, terms, v, 0, 0, 0);
+        setSlot(r, d, 0, 2, 0, -x, 0, x / w);
+      } else setSlot(r, d, 0, 2, v, 0, 0, 0);
     }
     const t1 = this.tmp, t2 = this.tmp + SLOT;
     for (let i = 0; i < table.rows; i++) {
@@ -493,14 +488,14 @@ export class LadderSolver {
       else if (role === ACROSS) parallel(r, wi, wi - SLOT, zi, t1, t2);
       else copy(r, wi, zi);
     }
-    const last = this.lastShunt;
-    if (last < 0) return;
-    copy(r, this.lBase + last * SLOT, this.branchSlot(last));
+    const last = this.lastShunt; // callers handle last < 0 (no path to ground) without a pass
+    if (last >= 0) copy(r, this.lBase + last * SLOT, this.branchSlot(last));
     for (let b = last - 1; b >= 0; b--) {
       const lb = this.lBase + b * SLOT;
       if (table.role[table.branchStart[b]] === SHUNT) parallel(r, lb, this.branchSlot(b), lb + SLOT, t1, t2);
       else add(r, lb, this.branchSlot(b), lb + SLOT);
     }
+    if (r[LOST]) throw indeterminate(f);
   }
 
   /** Slot of branch b's total impedance (the composite after its last row). */
@@ -604,7 +599,7 @@ function noPath(currentSource: boolean, out: Solution, elements: boolean): void 
   }
 }
 
-/** Any sum of a and b that is not finite (overflow, or NaN from it) means the ladder left the double range. */
+/** A part that is not finite (overflow, or NaN after one) means the ladder left the double range. */
 function checkRange(a: number, b: number, f: number): void {
   if (!(Math.abs(a) < Infinity && Math.abs(b) < Infinity)) {
     throw numError(

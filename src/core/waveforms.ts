@@ -29,41 +29,35 @@ export function cospi(x: number): number {
   return sinpi(x + 0.5);
 }
 
+// Taylor coefficients in x² for |x| < 1, truncated where the next term is below 1e-19 of the sum.
+const SINCM1 = new Float64Array(9); // sinc x − 1 = Σ_{k=1..9} (−1)^k x^{2k}/(2k+1)!
+const ODD = new Float64Array(9); // (sin x − x cos x)/(2x²) = Σ_{k=1..9} (−1)^{k+1} k x^{2k−1}/(2k+1)!
+{
+  let f = 1; // (2k+1)!
+  for (let k = 1; k <= 9; k++) {
+    f *= 2 * k * (2 * k + 1);
+    SINCM1[k - 1] = (k % 2 ? -1 : 1) / f;
+    ODD[k - 1] = ((k % 2 ? 1 : -1) * k) / f;
+  }
+}
+
+/** Horner sum of c[0]·y + c[1]·y² + … . */
+function series(c: Float64Array, y: number): number {
+  let acc = 0;
+  for (let k = c.length - 1; k >= 0; k--) acc = (acc + c[k]) * y;
+  return acc;
+}
+
 /** sinc(x) − 1 = sin(x)/x − 1, accurate for small x (series), so differences of sincs keep their digits. */
 function sincm1(x: number): number {
-  const x2 = x * x;
-  if (x2 < 1) {
-    let term = -x2 / 6;
-    let sum = term;
-    for (let k = 1; k < 20 && Math.abs(term) > 1e-18 * Math.abs(sum); k++) {
-      term *= -x2 / ((2 * k + 2) * (2 * k + 3));
-      sum += term;
-    }
-    return sum;
-  }
-  return Math.sin(x) / x - 1;
+  return Math.abs(x) < 1 ? series(SINCM1, x * x) : Math.sin(x) / x - 1;
 }
-
-/** sin(x)/x for x ≥ 0 given sin x. */
-const sincFrom = (x: number, sinx: number): number => (x < 1 ? 1 + sincm1(x) : sinx / x);
 
 /**
- * (sin x − x cos x)/(2x²) = ∫_{−1/2}^{1/2} w·sin(2xw) dw, the odd part of a linear segment's integral.
- * Series below 1 (the closed form loses digits as 3·eps/x² there).
+ * (sin x − x cos x)/(2x²) = ∫_{−1/2}^{1/2} w·sin(2xw) dw, the odd part of a linear segment's integral, for
+ * |x| < 1 by its series (the closed form loses digits as 3·eps/x² there).
  */
-function oddPart(x: number, sinx: number, cosx: number): number {
-  if (x < 1) {
-    const x2 = x * x;
-    let term = x / 6; // k = 1 term of j1(x)/2 = Σ (−1)^{k+1} k x^{2k−1}/(2k+1)!
-    let sum = term;
-    for (let k = 1; k < 20 && Math.abs(term) > 1e-18 * Math.abs(sum); k++) {
-      term *= -x2 / (2 * k * (2 * k + 3));
-      sum += term;
-    }
-    return sum;
-  }
-  return (sinx - x * cosx) / (2 * x * x);
-}
+const oddSeries = (x: number): number => series(ODD, x * x) / x;
 
 /* ---------------------------------------------------------------- argument checks */
 
@@ -100,6 +94,16 @@ function numbers(list: ArrayLike<number>, what: string, max: number): Float64Arr
     out[k] = v;
   }
   return out;
+}
+
+/** Every coefficient finite, or NUM: arguments near the floating-point range can overflow a product. */
+function finiteResult(s: Spectrum, what: string): Spectrum {
+  for (let n = 0; n < s.re.length; n++) {
+    if (!Number.isFinite(s.re[n]) || !Number.isFinite(s.im[n])) {
+      throw numError(`${what}: the values are too large to represent (coefficient ${n} overflows); scale them down.`);
+    }
+  }
+  return s;
 }
 
 /** Multiply C_n by e^{−jnω·delay} (x(t − delay)); `cycles` = delay·f0. */
@@ -175,7 +179,7 @@ export function pulse(
     s.im[n] = -k * sinpi(nD) - (A * dS) / (Math.PI * n);
   }
   shift(s, delay * frequency);
-  return s;
+  return finiteResult(s, 'pulse');
 }
 
 /**
@@ -210,7 +214,7 @@ export function ramp(low: number, high: number, frequency: number, harmonics: nu
     s.re[n] = -k * sinpi(ph);
     s.im[n] = -k * cospi(ph);
   }
-  return s;
+  return finiteResult(s, 'ramp');
 }
 
 /**
@@ -235,7 +239,7 @@ export function rectified(peak: number, lineFrequency: number, harmonics: number
   s.re[0] = full ? (2 * peak) / Math.PI : peak / Math.PI;
   if (!full && harmonics >= 1) s.im[1] = -peak / 2; // (peak/2)·sin ωt = Re(−j·peak/2·e^{jωt})
   for (let n = 2; n <= harmonics; n += 2) s.re[n] = -k / (n * n - 1);
-  return s;
+  return finiteResult(s, 'rectified');
 }
 
 /**
@@ -286,10 +290,17 @@ export function pwl(
   const s = makeSpectrum(1 / T, harmonics);
   for (let k = 0; k + 1 < K; k++) addSegment(s, T, t[k], t[k + 1] - t[k], v[k], v[k + 1]);
   addSegment(s, T, t[K - 1], T - span, v[K - 1], v[0]); // closing segment, its length taken from T directly
-  return s;
+  return finiteResult(s, 'pwl');
 }
 
-/** Add the share of C_0..C_N of one linear segment from (ta, va) to (ta + d, vb) (see pwl). */
+/** Rotations between exact re-evaluations of the per-harmonic phasors (bounds the recurrence's drift). */
+const RESEED = 32;
+
+/**
+ * Add the share of C_0..C_N of one linear segment from (ta, va) to (ta + d, vb) (see pwl). The phasors
+ * e^{−jnω·tm} and e^{jx_n} advance by one complex rotation per harmonic and are recomputed exactly every
+ * RESEED harmonics, which keeps the error near 1e-14 of the segment's share at a fraction of the trig cost.
+ */
 function addSegment(s: Spectrum, T: number, ta: number, d: number, va: number, vb: number): void {
   if (!(d > 0)) return; // a vertical jump encloses no area
   const re = s.re;
@@ -299,21 +310,49 @@ function addSegment(s: Spectrum, T: number, ta: number, d: number, va: number, v
   const vm = 0.5 * (va + vb);
   const dv = vb - va;
   re[0] += w * vm;
+  if (N === 0) return;
   const tm = ta + 0.5 * d;
   const u = tm / T - Math.floor(tm / T); // midpoint as a fraction of the period
   const x1 = Math.PI * w; // x for n = 1
+  const pc = cospi(2 * u); // e^{j2πu}: one harmonic step of the midpoint phase
+  const ps = sinpi(2 * u);
+  const xc = Math.cos(x1);
+  const xs = Math.sin(x1);
+  const w2 = 2 * w;
+  let c = 0; // cos(2πnu), sin(2πnu)
+  let sn = 0;
+  let cx = 0; // cos(x_n), sin(x_n)
+  let sx = 0;
   for (let n = 1; n <= N; n++) {
     const x = n * x1;
-    const sx = Math.sin(x);
-    const cx = Math.cos(x);
-    const br = vm * sincFrom(x, sx);
-    const bi = -dv * oddPart(x, sx, cx);
-    const ph = 2 * ((n * u) % 1);
-    const c = cospi(ph);
-    const sn = sinpi(ph);
-    // 2w·e^{−jφ}·(br + j·bi)
-    re[n] += 2 * w * (c * br + sn * bi);
-    im[n] += 2 * w * (c * bi - sn * br);
+    if (n % RESEED === 1) {
+      const ph = 2 * ((n * u) % 1);
+      c = cospi(ph);
+      sn = sinpi(ph);
+      cx = Math.cos(x);
+      sx = Math.sin(x);
+    } else {
+      const c1 = c * pc - sn * ps;
+      sn = sn * pc + c * ps;
+      c = c1;
+      const cx1 = cx * xc - sx * xs;
+      sx = sx * xc + cx * xs;
+      cx = cx1;
+    }
+    let S: number;
+    let g: number;
+    if (x < 1) {
+      S = 1 + sincm1(x);
+      g = oddSeries(x);
+    } else {
+      S = sx / x;
+      g = (sx - x * cx) / (2 * x * x);
+    }
+    const br = vm * S;
+    const bi = -dv * g;
+    // 2w·e^{−j2πnu}·(br + j·bi)
+    re[n] += w2 * (c * br + sn * bi);
+    im[n] += w2 * (c * bi - sn * br);
   }
 }
 
@@ -401,12 +440,13 @@ export function combine(spectra: Spectrum[]): Spectrum {
   spectra.forEach((s, i) => checkSpectrum(s, `spectrum ${i + 1}`));
   const tonal = spectra.filter((s) => order(s) > 0);
   if (tonal.length === 0) {
-    const out = makeSpectrum(spectra[0].f0, 0);
+    const f0 = spectra[0].f0;
+    const out = makeSpectrum(Number.isFinite(f0) && f0 > 0 ? f0 : 0, 0);
     for (const s of spectra) out.re[0] += s.re[0];
-    return out;
+    return finiteResult(out, 'combine');
   }
 
-  // Ratios to the first tonal fundamental as p/q; the common fundamental is f_ref·G/Q with Q = lcm(q).
+  // Each tonal fundamental is ref·p/q; the common fundamental is ref·G/Q with Q = lcm(q), G = gcd(p·Q/q).
   const max = LIMITS.harmonics;
   const ref = tonal[0].f0;
   const fail = (other: number): HcError =>
@@ -414,23 +454,23 @@ export function combine(spectra: Spectrum[]): Spectrum {
       `spectra at ${ref} Hz and ${other} Hz share no common fundamental that keeps every harmonic index ` +
         `within the limit of ${max}; use fundamentals in a simple integer ratio.`,
     );
-  const p = new Array<number>(tonal.length);
-  const q = new Array<number>(tonal.length);
+  const p = new Array<number>(spectra.length).fill(0);
+  const q = new Array<number>(spectra.length).fill(1);
   let Q = 1;
-  for (let i = 0; i < tonal.length; i++) {
-    const pq = rational(tonal[i].f0 / ref, max);
-    if (!pq) throw fail(tonal[i].f0);
+  spectra.forEach((s, i) => {
+    if (order(s) === 0) return;
+    const ratio = s.f0 / ref;
+    const pq = ratio <= max ? rational(ratio, max) : null; // a multiple beyond max cannot fit
+    if (!pq) throw fail(s.f0);
     [p[i], q[i]] = pq;
     Q = (Q / gcd(Q, q[i])) * q[i];
-    if (Q > max) throw fail(tonal[i].f0);
-  }
-  let G = 0;
-  for (let i = 0; i < tonal.length; i++) G = gcd(G, (p[i] * Q) / q[i]);
-  const mult = spectra.map((s) => {
-    if (order(s) === 0) return 0;
-    const pq = rational(s.f0 / ref, max)!;
-    return (pq[0] * Q) / pq[1] / G;
+    if (Q > max) throw fail(s.f0);
   });
+  let G = 0;
+  spectra.forEach((s, i) => {
+    if (order(s) > 0) G = gcd(G, (p[i] * Q) / q[i]);
+  });
+  const mult = spectra.map((s, i) => (order(s) > 0 ? (p[i] * Q) / q[i] / G : 0));
   let N = 0;
   spectra.forEach((s, i) => {
     N = Math.max(N, order(s) * mult[i]);
@@ -454,5 +494,5 @@ export function combine(spectra: Spectrum[]): Spectrum {
       out.im[n * m] += s.im[n];
     }
   });
-  return out;
+  return finiteResult(out, 'combine');
 }

@@ -9,6 +9,7 @@ import { preferred } from '../core/preferred';
 import { asBool, asChoice, asGrid, asScalar, asInteger, asNumber, asText, asVector, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
 import * as net from './network-args';
+import { PARTS_FUNCTIONS } from './parts-args';
 
 const spectrumArg = (v: unknown, name = 'spectrum'): Spectrum => spectrumFromTable(asGrid(v, name), name);
 const table = (s: Spectrum): number[][] => spectrumToTable(s);
@@ -240,7 +241,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     impl: (v, i) => power(spectrumArg(v, 'voltage_spectrum'), spectrumArg(i, 'current_spectrum')),
   },
   // ---- parts and values ------------------------------------------------------------------------------------
-  ...net.PARTS_FUNCTIONS,
+  ...PARTS_FUNCTIONS,
   {
     name: 'VALUE',
     description: 'Reads an engineering value such as 4k7, 2u2, 100 nF or 2.2 mH as a number in base units.',

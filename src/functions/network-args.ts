@@ -1,0 +1,121 @@
+import { numError, valueError } from '../core/errors';
+import { findElement, LadderTable, parseLadder, valuesFromGrid } from '../core/ladder';
+import { ComplexArrays, impedance, transfer } from '../core/network';
+import { response } from '../core/response';
+import { spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { asChoice, asGrid, asNumber, asScalar, asVector, isBlank } from './coerce';
+import { FunctionSpec } from './spec';
+
+/** Shared argument readers for every function that takes a ladder. */
+export const LADDER_HELP =
+  'Ladder table: rows of role (series, shunt, +, ||), kind (R, L, C), value (e.g. 4u7), [tolerance %], [name].';
+export const VALUES_HELP = 'Optional row or column with one value per ladder row, replacing the value column (a design case).';
+export const SOURCE_HELP = '"voltage" (default: the spectrum is an ideal voltage source) or "current" (an ideal current source).';
+
+export const ladderArg = (v: unknown): LadderTable => parseLadder(asGrid(v, 'ladder'), 'ladder');
+export const valuesArg = (v: unknown, table: LadderTable): Float64Array | undefined =>
+  isBlank(v) ? undefined : valuesFromGrid(asGrid(v, 'values'), table, 'values');
+export const sourceArg = (v: unknown) =>
+  asChoice(v, 'source', { voltage: 'voltage', v: 'voltage', current: 'current', i: 'current' }, 'voltage' as const);
+export const quantityArg = (v: unknown) =>
+  asChoice(v, 'quantity', { v: 'V', voltage: 'V', i: 'I', current: 'I' }, 'V' as const);
+export const elementArg = (v: unknown, table: LadderTable): number => findElement(table, asScalar(v, 'element'), 'element');
+
+type Form = 'polar' | 'rect' | 'complex' | 'db';
+const FORMS: Record<string, Form> = { polar: 'polar', rect: 'rect', rectangular: 'rect', complex: 'complex', db: 'db' };
+
+function frequencies(v: unknown): Float64Array {
+  const list = Array.isArray(v) ? asVector(v, 'frequency') : [asNumber(v, 'frequency')];
+  return Float64Array.from(list as number[]);
+}
+
+/** Text a+bj that spreadsheet complex-number functions read (upper-case exponent, j suffix). */
+function complexText(re: number, im: number): string {
+  const num = (x: number): string => String(x + 0).replace('e', 'E');
+  return `${num(re)}${im < 0 || Object.is(im, -0) ? '-' : '+'}${num(Math.abs(im))}j`;
+}
+
+function formatted(z: ComplexArrays, freqs: Float64Array, form: Form): (number | string)[][] {
+  const rows: (number | string)[][] = new Array(z.re.length);
+  for (let k = 0; k < z.re.length; k++) {
+    const re = z.re[k], im = z.im[k];
+    const mag = Math.hypot(re, im);
+    const deg = mag > 0 ? (Math.atan2(im, re) * 180) / Math.PI : 0;
+    if (form === 'rect') rows[k] = [re + 0, im + 0];
+    else if (form === 'complex') rows[k] = [complexText(re, im)];
+    else if (form === 'polar') rows[k] = [mag, deg + 0];
+    else {
+      if (mag === 0) throw numError(`the transfer is exactly 0 at ${freqs[k]} Hz, which has no value in dB (−∞); use form "polar".`);
+      rows[k] = [20 * Math.log10(mag), deg + 0];
+    }
+  }
+  return rows;
+}
+
+const FREQ_HELP = 'Frequency in Hz, or a column of frequencies for a sweep (one result row each).';
+
+export const NETWORK_FUNCTIONS: FunctionSpec[] = [
+  {
+    name: 'IMPEDANCE',
+    description: 'Impedance of the ladder seen by the source, at one frequency or a column of frequencies.',
+    args: [
+      { name: 'ladder', kind: 'range', help: LADDER_HELP },
+      { name: 'frequency', kind: 'range', help: FREQ_HELP },
+      { name: 'form', kind: 'text', help: '"polar" (default: magnitude Ω, phase deg), "rect" (real, imaginary) or "complex" (text a+bj).', optional: true },
+      { name: 'values', kind: 'range', help: VALUES_HELP, optional: true },
+    ],
+    result: 'matrix',
+    example: '=HC.IMPEDANCE(A2:C4, 100000)',
+    impl: (ladder, f, form, values) => {
+      const table = ladderArg(ladder);
+      const freqs = frequencies(f);
+      const fm = asChoice(form, 'form', { polar: 'polar', rect: 'rect', rectangular: 'rect', complex: 'complex' }, 'polar' as Form);
+      return formatted(impedance(table, freqs, valuesArg(values, table)), freqs, fm);
+    },
+  },
+  {
+    name: 'TRANSFER',
+    description: 'Far-end voltage divided by source voltage, at one frequency or a column of frequencies.',
+    args: [
+      { name: 'ladder', kind: 'range', help: LADDER_HELP },
+      { name: 'frequency', kind: 'range', help: FREQ_HELP },
+      { name: 'form', kind: 'text', help: '"polar" (default: magnitude, phase deg), "db" (dB, phase deg), "rect" or "complex".', optional: true },
+      { name: 'values', kind: 'range', help: VALUES_HELP, optional: true },
+    ],
+    result: 'matrix',
+    example: '=HC.TRANSFER(A2:C4, 100000, "db")',
+    impl: (ladder, f, form, values) => {
+      const table = ladderArg(ladder);
+      const freqs = frequencies(f);
+      const fm = asChoice(form, 'form', FORMS, 'polar' as Form);
+      return formatted(transfer(table, freqs, valuesArg(values, table)), freqs, fm);
+    },
+  },
+  {
+    name: 'RESPONSE',
+    description:
+      'Spectrum of a voltage or current in the ladder driven by a source spectrum: far-end voltage, source current, or one element’s voltage or current.',
+    args: [
+      { name: 'spectrum', kind: 'range', help: 'Source spectrum table (rows n, frequency, amplitude, phase).' },
+      { name: 'ladder', kind: 'range', help: LADDER_HELP },
+      { name: 'quantity', kind: 'text', help: '"V" (default: far-end voltage, or the voltage across the element) or "I" (source current, or the current through the element).', optional: true },
+      { name: 'element', kind: 'any', help: 'Element name (e.g. C2) or 1-based ladder row; omit for the far end / the source.', optional: true },
+      { name: 'values', kind: 'range', help: VALUES_HELP, optional: true },
+      { name: 'source', kind: 'text', help: SOURCE_HELP, optional: true },
+    ],
+    result: 'matrix',
+    example: '=HC.RESPONSE(HC.PULSE(0, 12, 0.4, 250000, 50), A2:C4)',
+    impl: (spec, ladder, quantity, element, values, source) => {
+      const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
+      const table = ladderArg(ladder);
+      return spectrumToTable(
+        response(s, table, {
+          quantity: quantityArg(quantity),
+          element: elementArg(element, table),
+          values: valuesArg(values, table),
+          source: sourceArg(source),
+        }),
+      );
+    },
+  },
+];

@@ -1,0 +1,89 @@
+/**
+ * One production build of the add-in for the Excel tests (excel-*.test.ts, manifest.test.ts,
+ * functions-page.test.ts), made with webpack's Node API in a child Node process and cached in the temp
+ * directory under a hash of every input, so the test files share it and an unchanged tree is not rebuilt.
+ */
+import { execFileSync } from 'child_process';
+import * as crypto from 'crypto';
+import * as fs from 'fs';
+import * as os from 'os';
+import * as path from 'path';
+
+export const ROOT = path.join(__dirname, '..');
+
+export interface Build {
+  dist: string;
+  /** Resource paths of every module webpack put into functions.js. */
+  modules: string[];
+}
+
+const INPUTS = ['src', 'assets', 'manifest.xml', 'webpack.config.js', 'package-lock.json'];
+
+function listFiles(p: string, out: string[]): void {
+  const st = fs.statSync(p);
+  if (st.isDirectory()) {
+    for (const name of fs.readdirSync(p).sort()) listFiles(path.join(p, name), out);
+  } else {
+    out.push(p);
+  }
+}
+
+function inputHash(): string {
+  const files: string[] = [];
+  for (const rel of INPUTS) {
+    const p = path.join(ROOT, rel);
+    if (fs.existsSync(p)) listFiles(p, files);
+  }
+  const h = crypto.createHash('sha256');
+  for (const f of files) h.update(path.relative(ROOT, f)).update('\0').update(fs.readFileSync(f)).update('\0');
+  return h.digest('hex').slice(0, 16);
+}
+
+const BUILD_SCRIPT = `
+const fs = require('fs');
+const webpack = require('webpack');
+const [out, modulesFile] = process.argv.slice(1);
+const config = require('./webpack.config.js')({ outputPath: out }, { mode: 'production' });
+webpack(config, (err, stats) => {
+  if (err || stats.hasErrors()) {
+    console.error(err ? String(err.stack || err) : stats.toString('errors-only'));
+    process.exit(1);
+  }
+  const mods = stats.toJson({ all: false, modules: true, nestedModules: true }).modules || [];
+  const names = [];
+  const walk = (ms) => { for (const m of ms) { names.push(m.nameForCondition || m.name || ''); if (m.modules) walk(m.modules); } };
+  walk(mods);
+  fs.writeFileSync(modulesFile, JSON.stringify(names));
+});
+`;
+
+let cached: Build | undefined;
+
+export function buildAddin(): Build {
+  if (cached) return cached;
+  const base = path.join(os.tmpdir(), 'harmonic-cells-addin-build');
+  const dir = path.join(base, inputHash());
+  const modulesFile = path.join(dir, 'modules.json');
+  if (!fs.existsSync(modulesFile)) {
+    fs.mkdirSync(base, { recursive: true });
+    const tmp = fs.mkdtempSync(path.join(base, 'tmp-'));
+    execFileSync(process.execPath, ['-e', BUILD_SCRIPT, path.join(tmp, 'dist'), path.join(tmp, 'modules.json')], {
+      cwd: ROOT,
+      stdio: ['ignore', 'ignore', 'pipe'],
+      timeout: 180_000,
+    });
+    try {
+      fs.renameSync(tmp, dir);
+    } catch {
+      // another test process finished the same build first; keep its copy
+      fs.rmSync(tmp, { recursive: true, force: true });
+    }
+    // builds of older trees are not needed any more
+    for (const name of fs.readdirSync(base)) {
+      const p = path.join(base, name);
+      if (p !== dir && !name.startsWith('tmp-')) fs.rmSync(p, { recursive: true, force: true });
+    }
+  }
+  cached = { dist: path.join(dir, 'dist'), modules: JSON.parse(fs.readFileSync(modulesFile, 'utf8')) as string[] };
+  return cached;
+}
