@@ -57,14 +57,14 @@ function readCertFiles() {
 function trustHelp(dir) {
   const ca = path.join(dir, 'ca.crt');
   return [
-    'The development CA is not trusted by this system, so browsers will warn about https://localhost:3000.',
+    `The development CA is not trusted by this system, so browsers will warn about https://localhost:${PORT}.`,
     'Trust it once, then restart the browser:',
     `  Debian/Ubuntu:  sudo cp "${ca}" /usr/local/share/ca-certificates/office-addin-dev-ca.crt && sudo update-ca-certificates`,
     `  Fedora/RHEL:    sudo cp "${ca}" /etc/pki/ca-trust/source/anchors/ && sudo update-ca-trust`,
     `  Chrome/Chromium (NSS, no sudo): certutil -d sql:$HOME/.pki/nssdb -A -t "C,," -n "Office Add-in dev CA" -i "${ca}"`,
     '  Firefox: Settings > Privacy & Security > Certificates > View Certificates > Authorities > Import.',
     `  macOS / Windows: npx office-addin-dev-certs install`,
-    'Or open https://localhost:3000/functions.html once and accept the warning (Excel on the web then loads it).',
+    `Or open https://localhost:${PORT}/functions.html once and accept the warning; that browser may then load the add-in for the session.`,
   ].join('\n');
 }
 

@@ -8,7 +8,7 @@ import * as path from 'path';
 import * as vm from 'vm';
 import { invoke } from '../src/functions/invoke';
 import { FUNCTIONS, FUNCTION_BY_NAME } from '../src/functions/table';
-import { buildAddin, Build } from './excel-build';
+import { buildAddin, Build } from './support/excel-build';
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const { FORBIDDEN } = require('../webpack.config.js') as { FORBIDDEN: string[] };

@@ -7,7 +7,7 @@ import * as fs from 'fs';
 import * as path from 'path';
 import { FUNCTIONS, FUNCTION_BY_NAME } from '../src/functions/table';
 import { signature } from '../src/functions/help-page';
-import { buildAddin } from './excel-build';
+import { buildAddin } from './support/excel-build';
 
 interface MetaParam {
   name: string;

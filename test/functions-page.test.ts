@@ -11,7 +11,7 @@ import * as path from 'path';
 import type { AddressInfo } from 'net';
 import { invoke } from '../src/functions/invoke';
 import { FUNCTION_BY_NAME } from '../src/functions/table';
-import { buildAddin } from './excel-build';
+import { buildAddin } from './support/excel-build';
 
 const CHROMIUM = '/usr/bin/chromium';
 const OFFICE_CDN = 'https://appsforoffice.microsoft.com/';

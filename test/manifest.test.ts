@@ -8,7 +8,7 @@
 import * as fs from 'fs';
 import * as path from 'path';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
-import { buildAddin, ROOT } from './excel-build';
+import { buildAddin, ROOT } from './support/excel-build';
 
 /** preserveOrder output of fast-xml-parser: { tagName: children[], ':@'?: attributes }. */
 type XNode = Record<string, unknown> & { ':@'?: Record<string, string> };

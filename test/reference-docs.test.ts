@@ -10,14 +10,17 @@ describe('README function reference', () => {
     expect(updatedReadme(readme)).toBe(readme);
   });
 
+  // Excel requires function names of at least three characters (Office custom-functions naming rules), so
+  // DESIGN §3's AT and PP are published as ATTIME and PKPK.
   test('names every DESIGN §3 function', () => {
     const design = [
       'PULSE', 'RAMP', 'RECTIFIED', 'PWL', 'SAMPLED', 'SINE', 'COMBINE', 'IMPEDANCE', 'TRANSFER', 'RESPONSE', 'STRESS',
-      'MEAN', 'RMS', 'PEAK', 'VALLEY', 'PP', 'CREST', 'THD', 'AT', 'TRACE', 'POWER', 'SPREAD', 'VALUE', 'PREFERRED', 'ENG',
+      'MEAN', 'RMS', 'PEAK', 'VALLEY', 'PKPK', 'CREST', 'THD', 'ATTIME', 'TRACE', 'POWER', 'SPREAD', 'VALUE', 'PREFERRED', 'ENG',
     ];
     const names = FUNCTIONS.map((f) => f.name);
     expect([...names].sort()).toEqual([...design].sort());
     for (const n of design) expect(readme).toContain(`HC.${n}(`);
+    for (const n of names) expect(n.length).toBeGreaterThanOrEqual(3);
   });
 
   test('opens with the job paragraph and the two set-up commands', () => {

@@ -114,6 +114,12 @@ describe('standard waveforms (REFERENCES.md table)', () => {
     // THD √(π⁴/96 − 1) = 0.12115: I. Blagouchine and E. Moreau, IEEE Trans. Communications 59(9), 2011
     expect(Math.sqrt(Math.PI ** 4 / 96 - 1)).toBeCloseTo(0.12115, 5);
     expect(thd(s)).toBeCloseTo(Math.sqrt(Math.PI ** 4 / 96 - 1), 9);
+    // time domain: −A at t = 0 rising to +A at T/2 (DESIGN §3), within 1e-3·A at N = 2000
+    for (let k = 0; k <= 64; k++) {
+      const u = k / 64;
+      const want = u <= 0.5 ? -A + 4 * A * u : 3 * A - 4 * A * u;
+      expect(Math.abs(at(s, u / f) - want)).toBeLessThan(1e-3 * A);
+    }
   });
 
   test('sawtooth ±A: a_n = 2A/(nπ) all n, DC 0, RMS A/√3, THD √(π²/6 − 1)', () => {

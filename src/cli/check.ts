@@ -1,3 +1,4 @@
+import { HyperFormula } from 'hyperformula';
 import { a1 } from '../engine/cells';
 import { plainValue, PlainValue } from '../engine/results';
 import { parseArgs } from './args';
@@ -17,18 +18,10 @@ export interface CheckResult {
   note: string;
 }
 
-/** hc check BOOK.xlsx [--json] */
-export async function runCheck(argv: string[], io: Io): Promise<number> {
-  const args = parseArgs(argv, { flags: ['json'] });
-  if (args.flags.has('help')) {
-    io.out(CHECK_HELP);
-    return EXIT.ok;
-  }
-  if (args.positionals.length !== 1) throw new UsageError('give one workbook, e.g. hc check design.xlsx');
-  const file = args.positionals[0];
-  const { book, hf } = await loadAndRecalculate(file, io);
-  const sheetName = book.sheetNames.find((n) => n.toLowerCase() === CHECKS_SHEET.toLowerCase());
-  if (sheetName === undefined) throw new UsageError(`${file} has no sheet named ${CHECKS_SHEET} (columns Label | Check | Note; see hc check --help).`);
+/** The checks of a recalculated workbook (the Checks sheet convention), or undefined if it has no Checks sheet. */
+export function readChecks(hf: HyperFormula, sheetNames: string[]): { sheetName: string; checks: CheckResult[] } | undefined {
+  const sheetName = sheetNames.find((n) => n.toLowerCase() === CHECKS_SHEET.toLowerCase());
+  if (sheetName === undefined) return undefined;
   const sheet = hf.getSheetId(sheetName) as number;
   const { height } = hf.getSheetDimensions(sheet);
   const checks: CheckResult[] = [];
@@ -40,13 +33,29 @@ export async function runCheck(argv: string[], io: Io): Promise<number> {
     if ((label === null || label === '') && formula === undefined && (value === null || value === '')) continue;
     const note = at(2);
     checks.push({
-      label: label === null ? `(row ${row + 1})` : formatValue(label),
+      label: label === null || label === '' ? `(row ${row + 1})` : formatValue(label),
       cell: `${sheetName}!${a1(row, 1)}`,
       value,
       pass: value === true,
       note: note === null ? '' : formatValue(note),
     });
   }
+  return { sheetName, checks };
+}
+
+/** hc check BOOK.xlsx [--json] */
+export async function runCheck(argv: string[], io: Io): Promise<number> {
+  const args = parseArgs(argv, { flags: ['json'] });
+  if (args.flags.has('help')) {
+    io.out(CHECK_HELP);
+    return EXIT.ok;
+  }
+  if (args.positionals.length !== 1) throw new UsageError('give one workbook, e.g. hc check design.xlsx');
+  const file = args.positionals[0];
+  const { book, hf } = await loadAndRecalculate(file, io);
+  const found = readChecks(hf, book.sheetNames);
+  if (!found) throw new UsageError(`${file} has no sheet named ${CHECKS_SHEET} (columns Label | Check | Note; see hc check --help).`);
+  const { sheetName, checks } = found;
   if (checks.length === 0) throw new UsageError(`the ${sheetName} sheet of ${file} holds no checks below its header row.`);
   const failed = checks.filter((c) => !c.pass);
   if (args.flags.has('json')) {
@@ -61,7 +70,7 @@ export async function runCheck(argv: string[], io: Io): Promise<number> {
   return failed.length ? EXIT.checksFailed : EXIT.ok;
 }
 
-function describe(v: PlainValue): string {
+export function describe(v: PlainValue): string {
   if (typeof v === 'object' && v !== null) return `${v.error}${v.message ? ` ${v.message}` : ''}`;
   if (v === null) return '(empty)';
   return formatValue(v);

@@ -1,5 +1,6 @@
 import { NotAFormulaError } from 'hyperformula';
-import { createEngine, normaliseFormula } from '../engine';
+import { createEngine } from '../engine/engine';
+import { engineFormula } from '../engine/formula-text';
 import { isErrorValue, plainValue, PlainValue } from '../engine/results';
 import { parseArgs } from './args';
 import { formatError, formatRows, formatValue } from './format';
@@ -19,9 +20,9 @@ export function runEval(argv: string[], io: Io): number {
   const hf = createEngine();
   let raw;
   try {
-    raw = hf.calculateFormula(normaliseFormula(text), 0);
+    raw = hf.calculateFormula(engineFormula(text), 0);
   } catch (e) {
-    if (e instanceof NotAFormulaError) throw new UsageError(`not a formula: ${text}`);
+    if (e instanceof NotAFormulaError) throw new UsageError(`cannot parse the formula ${text} (check brackets, quotes and separators: "," between arguments).`);
     throw e;
   }
   const value: PlainValue | PlainValue[][] = Array.isArray(raw) ? raw.map((r) => r.map(plainValue)) : plainValue(raw);

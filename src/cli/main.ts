@@ -1,15 +1,13 @@
 import * as fs from 'fs';
 import * as path from 'path';
-import { runCalc } from './calc';
-import { runCheck } from './check';
-import { runEval } from './eval';
 import { MAIN_HELP } from './help';
 import { EXIT, Io, processIo, UsageError } from './io';
 
-const COMMANDS: Record<string, (argv: string[], io: Io) => number | Promise<number>> = {
-  eval: runEval,
-  calc: runCalc,
-  check: runCheck,
+/** Commands load their modules on use, so `hc eval` does not load the workbook reader. */
+const COMMANDS: Record<string, (argv: string[], io: Io) => Promise<number>> = {
+  eval: async (argv, io) => (await import('./eval')).runEval(argv, io),
+  calc: async (argv, io) => (await import('./calc')).runCalc(argv, io),
+  check: async (argv, io) => (await import('./check')).runCheck(argv, io),
 };
 
 /** Run `hc` with arguments (without "node hc"); resolves to the exit code. Never throws. */

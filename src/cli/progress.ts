@@ -33,9 +33,8 @@ export function createProgress(io: Io, label: string, total: number, delayMs = 4
       draw(Math.min(count / total, 0.99));
     },
     done() {
-      if (!drawn) return;
-      draw(1);
-      io.err('\n');
+      // Erase the bar so the command's own output starts on a clean line.
+      if (drawn) io.err('\r\x1b[2K');
     },
   };
 }

@@ -465,7 +465,8 @@ export function realSpectrum(samples: Float64Array, harmonics: number, f0: numbe
  * x(t_k) at t_k = k/(points·f0), k = 0..points−1, by one inverse FFT (half length for an even count).
  * Harmonics at or above points/2 fold onto their aliases, so grid values stay exact for any points ≥ 1;
  * points ≥ 2N+1 resolves the waveform. Fastest when points is a power of two or fastLength(points).
- * Writes into `out` when it is long enough; reuses cached scratch, so steady-state calls do not allocate.
+ * Writes into `out` when it is long enough (it must not be the spectrum's own re/im arrays); reuses cached
+ * scratch, so steady-state calls do not allocate.
  */
 export function evaluateOnGrid(s: Spectrum, points: number, out?: Float64Array): Float64Array {
   if (!Number.isInteger(points) || points < 1) throw numError(`points must be a whole number ≥ 1, got ${points}.`);

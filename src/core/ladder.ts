@@ -24,7 +24,6 @@ export const L = 1;
 export const C = 2;
 export type Kind = typeof R | typeof L | typeof C;
 export const KIND_LETTER: readonly PartKind[] = ['R', 'L', 'C'];
-export const ROLE_WORD: readonly string[] = ['series', 'shunt', '+', '||'];
 
 export interface LadderTable {
   /** Number of element rows (header and blank rows are not counted). */

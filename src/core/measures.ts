@@ -10,6 +10,8 @@ import { LIMITS } from './limits';
 import { order, Spectrum } from './spectrum';
 
 const TWO_PI = 2 * Math.PI;
+// Module-level aliases: global lookups are slow inside some sandboxes (test runners, workbook engines).
+const { abs, sqrt, cos, sin, floor, ceil, round, hypot, log2, max: mmax, min: mmin } = Math;
 
 /** Signed mean (the DC term). */
 export function mean(s: Spectrum): number {
@@ -20,7 +22,7 @@ export function mean(s: Spectrum): number {
 /** Power of two at or above |x|, so that dividing by it is exact. */
 function pow2Above(x: number): number {
   if (!(x > 0)) return 1;
-  let e = Math.ceil(Math.log2(x));
+  let e = ceil(log2(x));
   if (2 ** e < x) e++;
   return 2 ** e;
 }
@@ -37,7 +39,7 @@ function scaledSquares(s: Spectrum, from: number, to: number, scale: number, w: 
     const b = n === 0 ? 0 : s.im[n] / scale;
     const t = (n === 0 ? 1 : w) * (a * a + b * b);
     const u = sum + t;
-    comp += Math.abs(sum) >= t ? sum - u + t : t - u + sum;
+    comp += abs(sum) >= t ? sum - u + t : t - u + sum;
     sum = u;
   }
   return sum + comp;
@@ -45,7 +47,7 @@ function scaledSquares(s: Spectrum, from: number, to: number, scale: number, w: 
 
 function largest(s: Spectrum, from: number, to: number): number {
   let big = 0;
-  for (let n = from; n <= to; n++) big = Math.max(big, Math.abs(s.re[n]), n === 0 ? 0 : Math.abs(s.im[n]));
+  for (let n = from; n <= to; n++) big = mmax(big, abs(s.re[n]), n === 0 ? 0 : abs(s.im[n]));
   return big;
 }
 
@@ -61,7 +63,7 @@ export function rms(s: Spectrum, acOnly = false): number {
   const from = acOnly ? 1 : 0;
   const N = order(s);
   const scale = pow2Above(largest(s, from, N));
-  return finiteResult(scale * Math.sqrt(scaledSquares(s, from, N, scale, 0.5)), 'RMS');
+  return finiteResult(scale * sqrt(scaledSquares(s, from, N, scale, 0.5)), 'RMS');
 }
 
 export type ThdReference = 'fundamental' | 'rms';
@@ -77,9 +79,9 @@ export function thd(s: Spectrum, reference: ThdReference = 'fundamental'): numbe
     throw valueError(`reference must be "fundamental" or "rms", got ${JSON.stringify(reference)}.`);
   }
   const N = order(s);
-  const fund = N >= 1 ? Math.hypot(s.re[1], s.im[1]) : 0;
+  const fund = N >= 1 ? hypot(s.re[1], s.im[1]) : 0;
   const scale = pow2Above(largest(s, 1, N));
-  const harm = N >= 2 ? Math.sqrt(scaledSquares(s, 2, N, scale, 1)) : 0; // in units of scale
+  const harm = N >= 2 ? sqrt(scaledSquares(s, 2, N, scale, 1)) : 0; // in units of scale
   if (ref === 'fundamental') {
     if (fund === 0) {
       throw numError('THD to the fundamental is undefined: the fundamental (n = 1) is zero. Use reference "rms", or a spectrum with a fundamental.');
@@ -89,7 +91,7 @@ export function thd(s: Spectrum, reference: ThdReference = 'fundamental'): numbe
     return r;
   }
   const f = fund / scale;
-  const ac = Math.sqrt(harm * harm + f * f);
+  const ac = sqrt(harm * harm + f * f);
   if (ac === 0) throw numError('THD to the RMS is undefined: the waveform has no AC part (all harmonics are zero).');
   return harm / ac;
 }
@@ -97,7 +99,7 @@ export function thd(s: Spectrum, reference: ThdReference = 'fundamental'): numbe
 /** Time in periods reduced to a phase in [0, 2π). */
 function phaseOf(time: number, f0: number): number {
   const u = time * f0;
-  return TWO_PI * (u - Math.floor(u));
+  return TWO_PI * (u - floor(u));
 }
 
 /** x(t) at one time (seconds), with compensated summation over the harmonics. */
@@ -107,16 +109,16 @@ export function valueAt(s: Spectrum, time: number): number {
   const N = order(s);
   if (N === 0) return s.re[0] + 0;
   const th = phaseOf(time, s.f0);
-  const c1 = Math.cos(th);
-  const s1 = Math.sin(th);
+  const c1 = cos(th);
+  const s1 = sin(th);
   let sum = s.re[0];
   let comp = 0;
   let zr = 1;
   let zi = 0;
   for (let n = 1; n <= N; n++) {
     if ((n - 1) % 64 === 0) {
-      zr = Math.cos(n * th);
-      zi = Math.sin(n * th);
+      zr = cos(n * th);
+      zi = sin(n * th);
     } else {
       const t = zr * c1 - zi * s1;
       zi = zr * s1 + zi * c1;
@@ -124,7 +126,7 @@ export function valueAt(s: Spectrum, time: number): number {
     }
     const v = s.re[n] * zr - s.im[n] * zi;
     const u = sum + v;
-    comp += Math.abs(sum) >= Math.abs(v) ? sum - u + v : v - u + sum;
+    comp += abs(sum) >= abs(v) ? sum - u + v : v - u + sum;
     sum = u;
   }
   return finiteResult(sum + comp, 'the value');
@@ -173,7 +175,7 @@ export function trace(s: Spectrum, points = 200, periods = 1): Trace {
     x.fill(s.re[0] + 0);
     return { t, x };
   }
-  if (!traceOnGrid(s, step, periods, K, x) && !(K * N <= DIRECT_TRACE_WORK && traceDirect(s, step, x))) {
+  if (!traceOnGrid(s, periods, K, x) && !(K * N <= DIRECT_TRACE_WORK && traceDirect(s, step, x))) {
     traceChirpZ(s, step, x);
   }
   for (let k = 0; k < K; k++) if (!Number.isFinite(x[k])) throw numError('the trace is too large to represent.');
@@ -184,16 +186,16 @@ export function trace(s: Spectrum, points = 200, periods = 1): Trace {
  * When periods = a/b with small b, the points are every j-th point of an M-point grid per period
  * (M ≥ 2N+1, M a multiple of the reduced denominator): one FFT, exact at the points.
  */
-function traceOnGrid(s: Spectrum, step: number, periods: number, K: number, x: Float64Array): boolean {
+function traceOnGrid(s: Spectrum, periods: number, K: number, x: Float64Array): boolean {
   const N = order(s);
   for (let b = 1; b <= 16; b++) {
-    const a = Math.round(periods * b);
-    if (a < 1 || Math.abs(a - periods * b) > 1e-12 * periods * b) continue;
+    const a = round(periods * b);
+    if (a < 1 || abs(a - periods * b) > 1e-12 * periods * b) continue;
     // step = a / (b·(K−1)) periods = num/den in lowest terms.
     const g = gcd(a, b * (K - 1));
     const num = a / g;
     const den = (b * (K - 1)) / g;
-    const c = Math.ceil((2 * N + 1) / den);
+    const c = ceil((2 * N + 1) / den);
     const M = den * c;
     if (M > 8 * (2 * N + 1) + 2 * K) return false;
     const grid = evaluateOnGrid(s, M);
@@ -214,7 +216,7 @@ function traceDirect(s: Spectrum, step: number, x: Float64Array): boolean {
   const buf = new Float64Array(3);
   for (let k = 0; k < x.length; k++) {
     const u = k * step;
-    evalSeries(s.re, s.im, N, TWO_PI * (u - Math.floor(u)), buf);
+    evalSeries(s.re, s.im, N, TWO_PI * (u - floor(u)), buf);
     x[k] = buf[0];
   }
   return true;
@@ -228,8 +230,8 @@ function chirpPhase(rHi: number, rLo: number, m: number): number {
   const m2 = m * m;
   const p = (rHi * m2) / 2; // exact: rHi has ≤ 22 significant bits
   const q = (rLo * m2) / 2;
-  const f = p - Math.floor(p) + (q - Math.floor(q));
-  return f - Math.floor(f);
+  const f = p - floor(p) + (q - floor(q));
+  return f - floor(f);
 }
 
 /**
@@ -239,16 +241,16 @@ function chirpPhase(rHi: number, rLo: number, m: number): number {
 function traceChirpZ(s: Spectrum, step: number, x: Float64Array): void {
   const N = order(s);
   const K = x.length;
-  const r = step - 2 * Math.floor(step / 2); // W^{m²/2} has period 2 in r
-  const rHi = Math.round(r * 2 ** 20) / 2 ** 20;
+  const r = step - 2 * floor(step / 2); // W^{m²/2} has period 2 in r
+  const rHi = round(r * 2 ** 20) / 2 ** 20;
   const rLo = r - rHi;
-  const top = Math.max(N, K);
+  const top = mmax(N, K);
   const wr = new Float64Array(top + 1);
   const wi = new Float64Array(top + 1);
   for (let m = 0; m <= top; m++) {
     const ph = TWO_PI * chirpPhase(rHi, rLo, m);
-    wr[m] = Math.cos(ph);
-    wi[m] = Math.sin(ph);
+    wr[m] = cos(ph);
+    wi[m] = sin(ph);
   }
   let L = 1;
   while (L < N + K) L *= 2;
@@ -296,8 +298,8 @@ export function power(v: Spectrum, i: Spectrum): number {
   checkSpectrum(i, 'current spectrum');
   const Nv = order(v);
   const Ni = order(i);
-  const N = Math.min(Nv, Ni);
-  if (N >= 1 && Math.abs(v.f0 - i.f0) > 1e-9 * Math.max(v.f0, i.f0)) {
+  const N = mmin(Nv, Ni);
+  if (N >= 1 && abs(v.f0 - i.f0) > 1e-9 * mmax(v.f0, i.f0)) {
     throw numError(
       `the voltage spectrum's fundamental (${v.f0} Hz) differs from the current spectrum's (${i.f0} Hz); both must share one fundamental.`,
     );
@@ -307,7 +309,7 @@ export function power(v: Spectrum, i: Spectrum): number {
   for (let n = 1; n <= N; n++) {
     const t = 0.5 * (v.re[n] * i.re[n] + v.im[n] * i.im[n]);
     const u = sum + t;
-    comp += Math.abs(sum) >= Math.abs(t) ? sum - u + t : t - u + sum;
+    comp += abs(sum) >= abs(t) ? sum - u + t : t - u + sum;
     sum = u;
   }
   return finiteResult(sum + comp, 'the mean power');
@@ -318,5 +320,5 @@ export function crest(s: Spectrum, opts?: ExtremesOptions): number {
   const r = rms(s);
   if (r === 0) throw numError('the crest factor is undefined for a zero waveform (its RMS is 0).');
   const e = extremes(s, opts);
-  return finiteResult(Math.max(Math.abs(e.max), Math.abs(e.min)) / r, 'the crest factor');
+  return finiteResult(mmax(abs(e.max), abs(e.min)) / r, 'the crest factor');
 }

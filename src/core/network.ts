@@ -20,7 +20,10 @@ import { formatEng } from './units';
  * (LadderSolver.fastBackward/fastForward) that gives the same numbers.
  */
 
-/** Relative size below which a sum of two terms is taken as an exact cancellation (a loss-free resonance). */
+/**
+ * A component of a sum smaller than SNAP × the size of its two terms is set to 0: it is rounding noise, and where
+ * both components vanish the sum is an exact cancellation (a loss-free resonance) handled by the next order.
+ */
 export const SNAP = 1e-13;
 
 // Slot layout: order k, number of reliable terms t (1 or 2), a₀ (re, im), a₁ (re, im).
@@ -319,10 +322,12 @@ export class LadderSolver {
   solve(f: number, source: SourceKind, out: Solution, elements = true): void {
     const currentSource = source === 'current';
     if (elements) {
-      out.vRe.fill(0);
-      out.vIm.fill(0);
-      out.iRe.fill(0);
-      out.iIm.fill(0);
+      // Rows after the last shunt carry no current and drop no voltage; the passes write all others.
+      const from = this.lastShunt < 0 ? 0 : this.table.branchStart[this.lastShunt + 1];
+      out.vRe.fill(0, from);
+      out.vIm.fill(0, from);
+      out.iRe.fill(0, from);
+      out.iIm.fill(0, from);
       out.bad.fill(0);
     }
     if (this.lastShunt < 0) return noPath(currentSource, out, elements);

@@ -2,7 +2,7 @@ import { ConfigParams, HyperFormula, SerializedNamedExpression, Sheets } from 'h
 import { FUNCTIONS } from '../functions/table';
 import { FunctionSpec } from '../functions/spec';
 import { EngineContext, isEngineContext, newContext, parseAddressKey } from './context';
-import { normaliseFormula } from './formula-text';
+import { engineFormula } from './formula-text';
 import { buildPlugin } from './plugin';
 
 /**
@@ -73,13 +73,13 @@ export function createEngine(sheets?: Sheets, options: EngineOptions = {}): Hype
   return hf;
 }
 
-/** Formulas as the engine reads them (saved-file prefixes removed, `1E-6` exponents), other cells untouched. */
+/** Formulas as the engine reads them (engineFormula), other cells untouched. */
 function normaliseSheets(sheets: Sheets): Sheets {
   const out: Sheets = {};
   for (const [name, rows] of Object.entries(sheets)) {
     // Array.from also turns holes of sparse rows into explicit blanks.
     out[name] = Array.from(rows, (row) =>
-      Array.from(row ?? [], (c) => (c === undefined ? null : typeof c === 'string' && c.startsWith('=') ? normaliseFormula(c) : c)),
+      Array.from(row ?? [], (c) => (c === undefined ? null : typeof c === 'string' && c.startsWith('=') ? engineFormula(c) : c)),
     );
   }
   return out;

@@ -9,7 +9,9 @@
 
 const SAVED_PREFIX = /(?:\[\d+\]!)?_xldudf_|_xlfn\.(?:_xlws\.)?|_xlws\.|_xlpm\.|_xll\./gi;
 /** Number literals with an upper-case exponent (1E-6): Excel writes them so, the engine's lexer wants `e`. */
-const UPPER_EXPONENT = /(^|[^A-Za-z0-9_.$])(\d+(?:\.\d*)?|\.\d+)E([+-]?\d)/g;
+const UPPER_EXPONENT = /(?<![A-Za-z0-9_.$])(\d+(?:\.\d*)?|\.\d+)E([+-]?\d)/g;
+/** Excel's boolean literals; the engine knows them only as the functions TRUE() and FALSE(). */
+const BOOLEAN_LITERAL = /(?<![A-Za-z0-9_.!$'\]])(TRUE|FALSE)(?![A-Za-z0-9_.!(]|\s*\()/gi;
 /** An add-in function saved without its namespace dot (HC_PULSE). */
 const UNDOTTED_HC = /_xldudf_HC_([A-Z][A-Z0-9_]*)\s*\(/gi;
 
@@ -45,16 +47,25 @@ export function mapOutsideStrings(formula: string, fn: (code: string) => string)
   return out;
 }
 
-/** Formula text from a saved file (or typed), as the engine reads it: leading "=", prefixes removed, `1E-6` → `1e-6`. */
+/** Formula text from a saved file, as a person reads it: leading "=", saved-file prefixes removed. */
 export function normaliseFormula(stored: string): string {
   const body = stored.startsWith('=') ? stored.slice(1) : stored;
   const clean = mapOutsideStrings(body, (code) =>
-    code
-      .replace(UNDOTTED_HC, (_m, name: string) => `HC.${name.toUpperCase()}(`)
-      .replace(SAVED_PREFIX, '')
-      .replace(UPPER_EXPONENT, (_m, before: string, mantissa: string, exp: string) => `${before}${mantissa}e${exp}`),
+    code.replace(UNDOTTED_HC, (_m, name: string) => `HC.${name.toUpperCase()}(`).replace(SAVED_PREFIX, ''),
   );
   return `=${clean}`;
+}
+
+/**
+ * Formula text as the engine reads it: normaliseFormula, then the spellings HyperFormula's parser wants
+ * where Excel's differ: `1E-6` → `1e-6`, and the literals TRUE/FALSE → TRUE()/FALSE().
+ */
+export function engineFormula(text: string): string {
+  return mapOutsideStrings(normaliseFormula(text), (code) =>
+    code
+      .replace(UPPER_EXPONENT, (_m, mantissa: string, exp: string) => `${mantissa}e${exp}`)
+      .replace(BOOLEAN_LITERAL, (_m, word: string) => `${word.toUpperCase()}()`),
+  );
 }
 
 /**
@@ -75,11 +86,11 @@ const XLWS = new Set(['FILTER', 'SORT']);
 export function toStoredFormula(formula: string): string {
   const body = formula.startsWith('=') ? formula.slice(1) : formula;
   return mapOutsideStrings(body, (code) =>
-    code.replace(/(^|[^A-Za-z0-9_.])([A-Za-z][A-Za-z0-9_.]*)(\s*\()/g, (m, before: string, name: string, paren: string) => {
+    code.replace(/(?<![A-Za-z0-9_.])([A-Za-z][A-Za-z0-9_.]*)(\s*\()/g, (m, name: string, paren: string) => {
       const upper = name.toUpperCase();
-      if (upper.startsWith('HC.')) return `${before}_xldudf_${upper}${paren}`;
-      if (XLWS.has(upper)) return `${before}_xlfn._xlws.${upper}${paren}`;
-      if (XLFN.has(upper)) return `${before}_xlfn.${upper}${paren}`;
+      if (upper.startsWith('HC.')) return `_xldudf_${upper}${paren}`;
+      if (XLWS.has(upper)) return `_xlfn._xlws.${upper}${paren}`;
+      if (XLFN.has(upper)) return `_xlfn.${upper}${paren}`;
       return m;
     }),
   );

@@ -54,6 +54,7 @@ export function renderHelpPage(functions: readonly FunctionSpec[]): string {
 <meta name="viewport" content="width=device-width, initial-scale=1" />
 <title>Harmonic Cells: function reference</title>
 <link rel="stylesheet" href="help.css" />
+<link rel="icon" type="image/png" href="assets/icon-16.png" />
 </head>
 <body>
 <header>

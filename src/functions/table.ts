@@ -163,9 +163,10 @@ export const FUNCTIONS: FunctionSpec[] = [
     example: '=HC.RMS(HC.PULSE(0, 5, 0.5, 1000, 99))',
     impl: (s, ac) => rms(spectrumArg(s), asBool(ac, 'ac_only', false)),
   },
-  ...(['PEAK', 'VALLEY', 'PP'] as const).map((name): FunctionSpec => {
-    const what = { PEAK: 'Largest value', VALLEY: 'Smallest value', PP: 'Peak-to-peak value (PEAK − VALLEY)' }[name];
-    const fn = { PEAK: peak, VALLEY: valley, PP: pp }[name];
+  // Excel needs function names of at least three characters, so peak-to-peak is PKPK (DESIGN §3 calls it PP).
+  ...(['PEAK', 'VALLEY', 'PKPK'] as const).map((name): FunctionSpec => {
+    const what = { PEAK: 'Largest value', VALLEY: 'Smallest value', PKPK: 'Peak-to-peak value (PEAK − VALLEY)' }[name];
+    const fn = { PEAK: peak, VALLEY: valley, PKPK: pp }[name];
     return {
       name,
       description: `${what} of the waveform over one whole period.`,
@@ -199,17 +200,17 @@ export const FUNCTIONS: FunctionSpec[] = [
     result: 'number',
     example: '=HC.THD(HC.PULSE(-1, 1, 0.5, 50, 199))',
     impl: (s, ref) =>
-      thd(spectrumArg(s), asChoice(ref, 'reference', { fundamental: 'fundamental', f: 'fundamental', rms: 'rms', r: 'rms' }, 'fundamental')),
+      thd(spectrumArg(s), asChoice<'fundamental' | 'rms'>(ref, 'reference', { fundamental: 'fundamental', f: 'fundamental', rms: 'rms', r: 'rms' }, 'fundamental')),
   },
   {
-    name: 'AT',
+    name: 'ATTIME', // DESIGN §3 calls it AT; Excel needs names of at least three characters
     description: 'Instantaneous value of the waveform of a spectrum at a time.',
     args: [
       { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
       { name: 'time', kind: 'number', help: 'Time in seconds (t = 0 as defined by the source function).' },
     ],
     result: 'number',
-    example: '=HC.AT(HC.SINE(1, 50), 0.005)',
+    example: '=HC.ATTIME(HC.SINE(1, 50), 0.005)',
     impl: (s, t) => valueAt(spectrumArg(s), asNumber(t, 'time')),
   },
   {

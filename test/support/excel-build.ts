@@ -1,7 +1,8 @@
 /**
  * One production build of the add-in for the Excel tests (excel-*.test.ts, manifest.test.ts,
  * functions-page.test.ts), made with webpack's Node API in a child Node process and cached in the temp
- * directory under a hash of every input, so the test files share it and an unchanged tree is not rebuilt.
+ * directory under a hash of every input, so the test files share one build and an unchanged tree is not
+ * rebuilt.
  */
 import { execFileSync } from 'child_process';
 import * as crypto from 'crypto';
@@ -9,7 +10,7 @@ import * as fs from 'fs';
 import * as os from 'os';
 import * as path from 'path';
 
-export const ROOT = path.join(__dirname, '..');
+export const ROOT = path.join(__dirname, '..', '..');
 
 export interface Build {
   dist: string;
@@ -59,31 +60,60 @@ webpack(config, (err, stats) => {
 
 let cached: Build | undefined;
 
+const sleep = (ms: number): void => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ms) as unknown as void;
+
+/**
+ * Test files run in parallel workers: the first to take the lock (an atomic mkdir) builds, the others wait for
+ * its result instead of building the same tree again.
+ */
 export function buildAddin(): Build {
   if (cached) return cached;
   const base = path.join(os.tmpdir(), 'harmonic-cells-addin-build');
   const dir = path.join(base, inputHash());
   const modulesFile = path.join(dir, 'modules.json');
-  if (!fs.existsSync(modulesFile)) {
-    fs.mkdirSync(base, { recursive: true });
-    const tmp = fs.mkdtempSync(path.join(base, 'tmp-'));
+  const lock = `${dir}.lock`;
+  fs.mkdirSync(base, { recursive: true });
+  const deadline = Date.now() + 300_000;
+  while (!fs.existsSync(modulesFile)) {
+    try {
+      fs.mkdirSync(lock);
+    } catch {
+      // someone else is building; a lock older than the build timeout is left from a killed run
+      try {
+        if (Date.now() - fs.statSync(lock).mtimeMs > 200_000) fs.rmSync(lock, { recursive: true, force: true });
+      } catch {
+        /* the lock went away meanwhile */
+      }
+      if (Date.now() > deadline) throw new Error(`timed out waiting for the add-in build in ${dir}`);
+      sleep(250);
+      continue;
+    }
+    try {
+      if (!fs.existsSync(modulesFile)) build(base, dir);
+    } finally {
+      fs.rmSync(lock, { recursive: true, force: true });
+    }
+  }
+  cached = { dist: path.join(dir, 'dist'), modules: JSON.parse(fs.readFileSync(modulesFile, 'utf8')) as string[] };
+  return cached;
+}
+
+function build(base: string, dir: string): void {
+  const tmp = fs.mkdtempSync(path.join(base, 'tmp-'));
+  try {
     execFileSync(process.execPath, ['-e', BUILD_SCRIPT, path.join(tmp, 'dist'), path.join(tmp, 'modules.json')], {
       cwd: ROOT,
       stdio: ['ignore', 'ignore', 'pipe'],
       timeout: 180_000,
     });
-    try {
-      fs.renameSync(tmp, dir);
-    } catch {
-      // another test process finished the same build first; keep its copy
-      fs.rmSync(tmp, { recursive: true, force: true });
-    }
-    // builds of older trees are not needed any more
-    for (const name of fs.readdirSync(base)) {
-      const p = path.join(base, name);
-      if (p !== dir && !name.startsWith('tmp-')) fs.rmSync(p, { recursive: true, force: true });
-    }
+    fs.rmSync(dir, { recursive: true, force: true });
+    fs.renameSync(tmp, dir);
+  } finally {
+    fs.rmSync(tmp, { recursive: true, force: true });
   }
-  cached = { dist: path.join(dir, 'dist'), modules: JSON.parse(fs.readFileSync(modulesFile, 'utf8')) as string[] };
-  return cached;
+  // builds of older trees are not needed any more
+  for (const name of fs.readdirSync(base)) {
+    const p = path.join(base, name);
+    if (p !== dir && !name.endsWith('.lock') && !name.startsWith('tmp-')) fs.rmSync(p, { recursive: true, force: true });
+  }
 }
