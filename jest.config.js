@@ -5,4 +5,5 @@ module.exports = {
   testMatch: ['**/*.test.ts'],
   transform: { '^.+\\.ts$': ['ts-jest', { diagnostics: false }] },
   testTimeout: 60000,
+  reporters: ['default', '<rootDir>/test/support/summary-reporter.js'],
 };
