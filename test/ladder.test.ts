@@ -3,17 +3,9 @@ import {
   ACROSS, C, checkValues, findElement, L, parseLadder, PLUS, R, SERIES, SHUNT, valuesFromGrid, withValues,
 } from '../src/core/ladder';
 import { LIMITS } from '../src/core/limits';
+import { failure } from './support/failure';
 
 /** The HcError code and message thrown by f ('none' when it returns). */
-function failure(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return { code: e.code, message: e.message };
-    return { code: `foreign ${String(e)}`, message: '' };
-  }
-  return { code: 'none', message: '' };
-}
 
 describe('parseLadder: roles', () => {
   it.each([

@@ -1,25 +1,16 @@
 import { add, complex, Complex, divide, lusolve, multiply, subtract } from 'mathjs';
-import { HcError } from '../src/core/errors';
 import { ACROSS, C, LadderTable, parseLadder, PLUS, SHUNT } from '../src/core/ladder';
 import { LIMITS } from '../src/core/limits';
 import {
   I_UNBOUNDED, impedance, LadderSolver, makeSolution, Solution, SourceKind, transfer, V_UNBOUNDED,
 } from '../src/core/network';
+import { failure } from './support/failure';
 
 const TWO_PI = 2 * Math.PI;
 const F = (...f: number[]) => Float64Array.from(f);
 const mag = (re: number, im: number) => Math.hypot(re, im);
 const deg = (re: number, im: number) => (Math.atan2(im, re) * 180) / Math.PI;
 
-function failure(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return { code: e.code, message: e.message };
-    return { code: `foreign ${String(e)}`, message: '' };
-  }
-  return { code: 'none', message: '' };
-}
 
 function solveAt(table: LadderTable, f: number, source: SourceKind = 'voltage', fast = true): Solution {
   const s = new LadderSolver(table);

@@ -1,23 +1,7 @@
 import fc from 'fast-check';
-import { HcError } from '../src/core/errors';
 import { E_SERIES, SERIES_NAMES, SeriesName, parseSeries, preferred } from '../src/core/preferred';
+import { codeOf, messageOf } from './support/failure';
 
-function codeOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return e instanceof HcError ? e.code : `foreign ${String(e)}`;
-  }
-  return 'none';
-}
-function messageOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
-}
 
 const SIZE: Record<SeriesName, number> = { E3: 3, E6: 6, E12: 12, E24: 24, E48: 48, E96: 96, E192: 192 };
 const everyOther = (a: readonly number[]): number[] => a.filter((_, i) => i % 2 === 0);

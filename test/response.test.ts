@@ -1,20 +1,11 @@
-import { HcError } from '../src/core/errors';
 import { findElement, parseLadder, withValues } from '../src/core/ladder';
 import { impedance, LadderSolver, makeSolution, transfer } from '../src/core/network';
 import { elementResponses, response } from '../src/core/response';
 import { makeSpectrum, order, Spectrum, spectrumFromTable } from '../src/core/spectrum';
+import { failure } from './support/failure';
 
 const TWO_PI = 2 * Math.PI;
 
-function failure(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return { code: e.code, message: e.message };
-    return { code: `foreign ${String(e)}`, message: '' };
-  }
-  return { code: 'none', message: '' };
-}
 
 /** A made-up multi-tone source: DC plus harmonics 1..N with assorted phasors. */
 function tones(f0: number, N: number, dc = 1): Spectrum {

@@ -1,4 +1,3 @@
-import { HcError } from '../src/core/errors';
 import { pp } from '../src/core/extremes';
 import { LadderTable, parseLadder, withValues } from '../src/core/ladder';
 import { LIMITS } from '../src/core/limits';
@@ -7,16 +6,8 @@ import { response, ResponseOptions } from '../src/core/response';
 import { makeSpectrum, Spectrum } from '../src/core/spectrum';
 import { ladderSeed, MEASURES, spread, Xoshiro128 } from '../src/core/tolerance';
 import { pulse } from '../src/core/waveforms';
+import { failure } from './support/failure';
 
-function failure(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return { code: e.code, message: e.message };
-    return { code: `foreign ${String(e)}`, message: '' };
-  }
-  return { code: 'none', message: '' };
-}
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

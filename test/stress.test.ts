@@ -1,4 +1,3 @@
-import { HcError } from '../src/core/errors';
 import { parseLadder } from '../src/core/ladder';
 import { power, rms } from '../src/core/measures';
 import { extremes } from '../src/core/extremes';
@@ -6,16 +5,8 @@ import { response } from '../src/core/response';
 import { makeSpectrum } from '../src/core/spectrum';
 import { stress } from '../src/core/stress';
 import { pulse } from '../src/core/waveforms';
+import { failure } from './support/failure';
 
-function failure(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return { code: e.code, message: e.message };
-    return { code: `foreign ${String(e)}`, message: '' };
-  }
-  return { code: 'none', message: '' };
-}
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 

@@ -1,25 +1,7 @@
 import fc from 'fast-check';
-import { HcError } from '../src/core/errors';
 import { formatEng, normalizeUnit, parsePartValue, parseValue } from '../src/core/units';
+import { codeOf, messageOf } from './support/failure';
 
-/** The HcError code thrown by f, or 'none'. */
-function codeOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof HcError) return e.code;
-    return `foreign ${String(e)}`;
-  }
-  return 'none';
-}
-function messageOf(f: () => unknown): string {
-  try {
-    f();
-  } catch (e) {
-    return (e as Error).message;
-  }
-  return '';
-}
 
 describe('parseValue: IEC 60062 letter code (letter stands for the decimal point)', () => {
   // IEC 60062, examples as listed in REFERENCES.md.
