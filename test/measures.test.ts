@@ -205,6 +205,8 @@ describe('mean and rms', () => {
     expect(rms(huge)).toBeCloseTo(1e300 / Math.SQRT2, -286);
     huge.re[2] = 1.7e308;
     huge.im[2] = 1.7e308;
+    expect(rms(huge) / 1.7e308).toBeCloseTo(1, 14); // √(|C₂|²/2) = 1.7e308 is representable (issue 6)
+    huge.re[1] = 1.7e308; // now √((|C₁|² + |C₂|²)/2) ≈ 2.1e308 is not
     expectHcError(() => rms(huge), 'NUM', /too large/);
   });
 

@@ -549,7 +549,7 @@ describe('argument errors (HcError codes)', () => {
     expect(codeOf(() => pulse(-1e308, 1e308, 0.5, 50, 5))).toBe('NUM');
     expect(codeOf(() => ramp(-1e308, 1e308, 50, 5))).toBe('NUM');
     expect(codeOf(() => rectified(1.5e308, 50, 5))).toBe('NUM');
-    expect(codeOf(() => pwl([0, 1], [1e308, 1e308], 5))).toBe('NUM');
+    expect(codeOf(() => pwl([0, 1], [1e308, -1e308], 5))).toBe('NUM'); // the step of 2e308 (a constant 1e308 is fine)
     expect(codeOf(() => combine([sine(1e308, 50), sine(1e308, 50)]))).toBe('NUM');
   });
 
@@ -570,7 +570,7 @@ describe('argument errors (HcError codes)', () => {
     try {
       ramp(0, 1, 50, 5, 2);
     } catch (e) {
-      expect((e as HcError).message).toMatch(/riseFraction must be from 0 to 1/);
+      expect((e as HcError).message).toMatch(/rise_fraction must be from 0 to 1/);
     }
   });
 });

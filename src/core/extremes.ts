@@ -60,6 +60,30 @@ const isFinite_ = (x: number): boolean => x - x === 0;
 /** Gibbs overshoot per unit jump: Si(π)/π − ½. */
 export const GIBBS_OVERSHOOT = 0.0894898722360836;
 
+/**
+ * Work arrays reused from call to call: each typed array above 64 bytes is a separate allocation that costs
+ * microseconds and loads the garbage collector, several times the arithmetic of a 200-harmonic search. The
+ * searches never nest, so one array per purpose suffices. Contents are stale: every user writes before it reads.
+ * Above POOL_MAX elements a call allocates its own (the work then dwarfs the allocation).
+ */
+const POOL_MAX = 1 << 15;
+const pool = new Map<string, Float64Array>();
+function scratch(purpose: string, size: number): Float64Array {
+  if (size > POOL_MAX) return new Float64Array(size);
+  let a = pool.get(purpose);
+  if (!a || a.length < size) {
+    a = new Float64Array(mmin(POOL_MAX, mmax(size, 2 * (a?.length ?? 0), 64)));
+    pool.set(purpose, a);
+  }
+  return a;
+}
+const linkPool = { a: new Uint8Array(0) };
+function scratchLinks(size: number): Uint8Array {
+  if (size > POOL_MAX) return new Uint8Array(size);
+  if (linkPool.a.length < size) linkPool.a = new Uint8Array(mmin(POOL_MAX, mmax(size, 2 * linkPool.a.length, 64)));
+  return linkPool.a;
+}
+
 /* ------------------------------------------------------------------------------------------------------ */
 /* Spectrum checks shared with measures.ts                                                                   */
 
@@ -309,7 +333,9 @@ function scanModel(m: Model): Scan {
   let m4 = 0;
   let m0 = abs(re[0]);
   for (let n = 1; n <= N; n++) {
-    const a = hypot(re[n], im[n]);
+    // |C_n| only bounds the search: sqrt is enough (and ~10× cheaper than hypot) unless a square overflows.
+    let a = sqrt(re[n] * re[n] + im[n] * im[n]);
+    if (!(a < INF)) a = hypot(re[n], im[n]);
     m4 += n * n * n * n * a;
     m0 += a;
   }
@@ -318,27 +344,31 @@ function scanModel(m: Model): Scan {
 
   const P = gridSize(N);
   const h = TWO_PI / P;
-  const val = evaluateOnGrid({ f0: 1, re, im }, P, new Float64Array(P));
-  const dre = new Float64Array(N + 1);
-  const dim = new Float64Array(N + 1);
+  const val = evaluateOnGrid({ f0: 1, re, im }, P, scratch('val', P));
+  // exact lengths: evaluateOnGrid reads the order from them
+  const dre = scratch('dre', N + 1).subarray(0, N + 1);
+  const dim = scratch('dim', N + 1).subarray(0, N + 1);
+  dre[0] = 0;
+  dim[0] = 0;
   for (let n = 1; n <= N; n++) {
     dre[n] = -n * im[n];
     dim[n] = n * re[n];
   }
-  const der = evaluateOnGrid({ f0: 1, re: dre, im: dim }, P, new Float64Array(P));
+  const der = evaluateOnGrid({ f0: 1, re: dre, im: dim }, P, scratch('der', P));
 
   // Sample sequence: positions, values, slopes; link[i] = 1 when (i, i+1) is an interval of one piece.
   const L = K === 0 ? P + 1 : P + 2 * K;
-  const pos = new Float64Array(L);
-  const fv = new Float64Array(L);
-  const fd = new Float64Array(L);
-  const link = new Uint8Array(L);
+  const pos = scratch('pos', L);
+  const fv = scratch('fv', L);
+  const fd = scratch('fd', L);
+  const link = scratchLinks(L);
   let count = 0;
   if (K === 0) {
     for (let i = 0; i <= P; i++) {
+      const g = i < P ? i : 0; // i % P, without an integer division per sample
       pos[i] = i * h;
-      fv[i] = val[i % P];
-      fd[i] = der[i % P];
+      fv[i] = val[g];
+      fd[i] = der[g];
       link[i] = i < P ? 1 : 0;
     }
     count = P + 1;
@@ -369,8 +399,9 @@ function scanModel(m: Model): Scan {
       link[count++] = 1;
       for (let i = floor(a0 / h) + 1; i * h < a1; i++) {
         pos[count] = i * h;
-        fv[count] = val[i % P];
-        fd[count] = der[i % P];
+        const g = i < P ? i : i - P; // i % P (i < 2P here)
+        fv[count] = val[g];
+        fd[count] = der[g];
         link[count++] = 1;
       }
       pos[count] = a1;
@@ -380,14 +411,15 @@ function scanModel(m: Model): Scan {
     }
   }
 
+  // Extremes of the samples, and the widest interval (link[count − 1] is always 0).
   const res: Scan = { max: -INF, thMax: 0, min: INF, thMin: 0 };
-  for (let i = 0; i < count; i++) {
-    if (fv[i] > res.max) { res.max = fv[i]; res.thMax = pos[i]; }
-    if (fv[i] < res.min) { res.min = fv[i]; res.thMin = pos[i]; }
-  }
-
   let hMax = h;
-  for (let i = 0; i + 1 < count; i++) if (link[i]) hMax = mmax(hMax, pos[i + 1] - pos[i]);
+  for (let i = 0; i < count; i++) {
+    const v = fv[i];
+    if (v > res.max) { res.max = v; res.thMax = pos[i]; }
+    if (v < res.min) { res.min = v; res.thMin = pos[i]; }
+    if (link[i]) hMax = mmax(hMax, pos[i + 1] - pos[i]);
+  }
   // What refinement can still gain over an interval's Hermite estimate, and the rounding floor of the sums:
   // an interval is refined only when it could beat the best value by more than that floor.
   const bound = (m4 * hMax ** 4) / 384;
@@ -396,14 +428,29 @@ function scanModel(m: Model): Scan {
   const best: Found = { value: 0, theta: 0 };
   const sArg = new Float64Array(1);
   const cand: number[] = [];
-  const est = new Float64Array(count);
-  const arg = new Float64Array(count);
+  const est = scratch('est', count);
+  const arg = scratch('arg', count);
+  // Cheap screen for both searches in one pass: on [0, 1] the Hermite basis gives
+  // σH ≤ max(σf_a, σf_b) + (4/27)·len·(|g_a| + |g_b|); only intervals that could pass the test below remain.
+  const upFloor = res.max + noise - bound;
+  const downFloor = -res.min + noise - bound;
+  const screenedUp: number[] = [];
+  const screenedDown: number[] = [];
+  for (let i = 0; i + 1 < count; i++) {
+    if (!link[i]) continue;
+    const fa = fv[i], fb = fv[i + 1];
+    const slack = (4 / 27) * (pos[i + 1] - pos[i]) * (abs(fd[i]) + abs(fd[i + 1]));
+    const up = (fa > fb ? fa : fb) + slack;
+    const down = -(fa < fb ? fa : fb) + slack;
+    // margin: hermiteMax rounds too
+    if (up + 1e-14 * abs(up) > upFloor) screenedUp.push(i);
+    if (down + 1e-14 * abs(down) > downFloor) screenedDown.push(i);
+  }
 
   for (const sigma of [1, -1]) {
     let top = sigma > 0 ? res.max : -res.min;
     cand.length = 0;
-    for (let i = 0; i + 1 < count; i++) {
-      if (!link[i]) continue;
+    for (const i of sigma > 0 ? screenedUp : screenedDown) {
       const len = pos[i + 1] - pos[i];
       const e = hermiteMax(sigma, fv[i], fd[i], fv[i + 1], fd[i + 1], len, sArg);
       if (e + bound > top + noise) {
@@ -496,8 +543,10 @@ function looksLikeJumps(dr: Float64Array, di: Float64Array, N: number, minLevel:
  * (Weights vanishing at n = 0 would suppress smooth parts better but make the kernel ring.)
  */
 function concentration(er: Float64Array, ei: Float64Array, N: number, P: number, out: Float64Array): Float64Array {
-  const re = new Float64Array(N + 1);
-  const im = new Float64Array(N + 1);
+  const re = scratch('cre', N + 1).subarray(0, N + 1);
+  const im = scratch('cim', N + 1).subarray(0, N + 1);
+  re[0] = 0;
+  im[0] = 0;
   let sw = 0;
   for (let n = 1; n <= N; n++) {
     const c = cos((PI * n) / (2 * (N + 1)));
@@ -767,8 +816,10 @@ function tidy(p: Float64Array, N: number): Float64Array {
 export function findJumps(s: Spectrum): Jumps | null {
   const N = order(s);
   if (N < MIN_JUMP_ORDER) return null;
-  const dr = new Float64Array(N + 1);
-  const di = new Float64Array(N + 1);
+  const dr = scratch('dr', N + 1);
+  const di = scratch('di', N + 1);
+  dr[0] = 0;
+  di[0] = 0;
   let ac = 0;
   for (let n = 1; n <= N; n++) {
     dr[n] = -PI * n * s.im[n];
@@ -781,9 +832,11 @@ export function findJumps(s: Spectrum): Jumps | null {
   // At least 4 harmonics (8 real values) per jump's 3 parameters.
   const maxJumps = mmin(MAX_JUMPS, floor((N - nLo + 1) / 4));
   const P = gridSize(N);
-  const G = new Float64Array(P);
-  const er = Float64Array.from(dr);
-  const ei = Float64Array.from(di);
+  const G = scratch('G', P);
+  const er = scratch('er', N + 1);
+  const ei = scratch('ei', N + 1);
+  er.set(dr.subarray(0, N + 1));
+  ei.set(di.subarray(0, N + 1));
   let p: Float64Array = new Float64Array(0);
   const sep = (1.5 * TWO_PI) / N; // beyond the kernel's main lobe: closer peaks are one feature
   const unexplainedBy = (q: Float64Array): number => {

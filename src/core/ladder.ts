@@ -65,6 +65,10 @@ const KIND_FORMS: Readonly<Record<string, Kind>> = {
 };
 const KIND_HELP = 'R, L or C (or resistor, inductor, capacitor)';
 
+/** A table entry, never an inherited property ("constructor" is not a role). */
+const lookup = <T>(table: Readonly<Record<string, T>>, key: string): T | undefined =>
+  Object.prototype.hasOwnProperty.call(table, key) ? table[key] : undefined;
+
 const isBlank = (v: unknown): boolean => v === null || v === undefined || (typeof v === 'string' && v.trim() === '');
 const words = (v: unknown): string => (typeof v === 'string' ? v.trim().toLowerCase().replace(/\s+/g, ' ') : '');
 const show = (v: unknown): string => {
@@ -116,8 +120,8 @@ export function parseLadder(grid: unknown, what = 'ladder'): LadderTable {
     const row = raw[r];
     if (row.every(isBlank)) continue;
     const where = `${what} row ${r + 1}`;
-    const roleCode = ROLE_FORMS[words(row[0])];
-    const kindCode = KIND_FORMS[words(row[1])];
+    const roleCode = lookup(ROLE_FORMS, words(row[0]));
+    const kindCode = lookup(KIND_FORMS, words(row[1]));
     if (role.length === 0 && !headerSkipped && roleCode === undefined && kindCode === undefined && typeof row[2] !== 'number') {
       headerSkipped = true;
       continue;

@@ -4,7 +4,8 @@
  * underflow) and compensated (Neumaier) summation, so RMS and THD keep full precision at 10 000 harmonics.
  */
 import { finite, numError, valueError } from './errors';
-import { checkSpectrum, evalSeries, extremes, ExtremesOptions } from './extremes';
+import { checkSpectrum, evalSeries, ExtremesOptions } from './extremes';
+import { scaledExtremes } from './extremes-scaled';
 import { evaluateOnGrid, fft } from './fft';
 import { LIMITS } from './limits';
 import { order, Spectrum } from './spectrum';
@@ -24,7 +25,8 @@ function pow2Above(x: number): number {
   if (!(x > 0)) return 1;
   let e = ceil(log2(x));
   if (2 ** e < x) e++;
-  return 2 ** e;
+  // 2^1024 is Infinity: above 2^1023 the scaled values stay below 2, their squares far from overflow.
+  return 2 ** Math.min(e, 1023);
 }
 
 /**
@@ -86,7 +88,7 @@ export function thd(s: Spectrum, reference: ThdReference = 'fundamental'): numbe
     if (fund === 0) {
       throw numError('THD to the fundamental is undefined: the fundamental (n = 1) is zero. Use reference "rms", or a spectrum with a fundamental.');
     }
-    const r = (harm / fund) * scale;
+    const r = harm / (fund / scale); // fund/scale ≤ 1: no overflow on the way, only in a ratio that is too large
     if (!Number.isFinite(r)) throw numError('THD to the fundamental is too large to represent: the fundamental is negligible next to the harmonics.');
     return r;
   }
@@ -99,6 +101,7 @@ export function thd(s: Spectrum, reference: ThdReference = 'fundamental'): numbe
 /** Time in periods reduced to a phase in [0, 2π). */
 function phaseOf(time: number, f0: number): number {
   const u = time * f0;
+  if (!Number.isFinite(u)) throw numError(`time ${time} s is beyond the number range in periods of ${f0} Hz.`);
   return TWO_PI * (u - floor(u));
 }
 
@@ -109,9 +112,18 @@ export function valueAt(s: Spectrum, time: number): number {
   const N = order(s);
   if (N === 0) return s.re[0] + 0;
   const th = phaseOf(time, s.f0);
+  const x = sumAt(s, th, 1);
+  if (Number.isFinite(x)) return x + 0;
+  // A partial sum or a product overflowed: sum again at 2^-64 scale (exact), so only a true value beyond
+  // the number range is refused.
+  return finiteResult(sumAt(s, th, 2 ** -64) * 2 ** 64, 'the value');
+}
+
+function sumAt(s: Spectrum, th: number, scale: number): number {
+  const N = order(s);
   const c1 = cos(th);
   const s1 = sin(th);
-  let sum = s.re[0];
+  let sum = s.re[0] * scale;
   let comp = 0;
   let zr = 1;
   let zi = 0;
@@ -124,12 +136,12 @@ export function valueAt(s: Spectrum, time: number): number {
       zi = zr * s1 + zi * c1;
       zr = t;
     }
-    const v = s.re[n] * zr - s.im[n] * zi;
+    const v = s.re[n] * scale * zr - s.im[n] * scale * zi;
     const u = sum + v;
     comp += abs(sum) >= abs(v) ? sum - u + v : v - u + sum;
     sum = u;
   }
-  return finiteResult(sum + comp, 'the value');
+  return sum + comp;
 }
 
 export interface Trace {
@@ -170,6 +182,7 @@ export function trace(s: Spectrum, points = 200, periods = 1): Trace {
   const x = new Float64Array(K);
   const step = periods / (K - 1); // periods per step
   for (let k = 0; k < K; k++) t[k] = ((k * periods) / (K - 1)) * T;
+  if (!Number.isFinite(t[K - 1])) throw numError(`the trace's times exceed the number range: the period is ${T} s.`);
 
   if (N === 0) {
     x.fill(s.re[0] + 0);
@@ -307,7 +320,7 @@ export function power(v: Spectrum, i: Spectrum): number {
   let sum = v.re[0] * i.re[0];
   let comp = 0;
   for (let n = 1; n <= N; n++) {
-    const t = 0.5 * (v.re[n] * i.re[n] + v.im[n] * i.im[n]);
+    const t = 0.5 * v.re[n] * i.re[n] + 0.5 * v.im[n] * i.im[n]; // halves first: 1e308·2/2 stays finite
     const u = sum + t;
     comp += abs(sum) >= abs(t) ? sum - u + t : t - u + sum;
     sum = u;
@@ -319,6 +332,6 @@ export function power(v: Spectrum, i: Spectrum): number {
 export function crest(s: Spectrum, opts?: ExtremesOptions): number {
   const r = rms(s);
   if (r === 0) throw numError('the crest factor is undefined for a zero waveform (its RMS is 0).');
-  const e = extremes(s, opts);
+  const e = scaledExtremes(s, opts);
   return finiteResult(mmax(abs(e.max), abs(e.min)) / r, 'the crest factor');
 }

@@ -63,11 +63,48 @@ export interface Solution {
   readonly portBad: Uint8Array;
 }
 
+/** Port quantities at many frequencies, written by LadderSolver.portsBatch; each array has one slot per frequency. */
+export interface PortBatch {
+  /** Source current (voltage source) or source voltage, i.e. the input impedance (current source). */
+  readonly sRe: Float64Array;
+  readonly sIm: Float64Array;
+  /** Far-end voltage. */
+  readonly fRe: Float64Array;
+  readonly fIm: Float64Array;
+  /** 1 where the slot holds the answer; 0 where `solve` must take that frequency. */
+  readonly ok: Uint8Array;
+}
+
+export function makePortBatch(count: number): PortBatch {
+  const f = new Float64Array(4 * count);
+  return {
+    sRe: f.subarray(0, count), sIm: f.subarray(count, 2 * count), fRe: f.subarray(2 * count, 3 * count),
+    fIm: f.subarray(3 * count), ok: new Uint8Array(count),
+  };
+}
+
+let sharedBatch: { w: Float64Array; batch: PortBatch } | undefined;
+
+/**
+ * Angular frequencies and a PortBatch of at least `count` slots, shared by the callers in this module and
+ * response.ts (each reads its results before it returns, and none calls another meanwhile), so that a sweep
+ * allocates nothing per call.
+ */
+export function batchBuffers(count: number): { w: Float64Array; batch: PortBatch } {
+  if (!sharedBatch || sharedBatch.w.length < count) {
+    const size = Math.max(count, 2 * (sharedBatch?.w.length ?? 0), 256);
+    sharedBatch = { w: new Float64Array(size), batch: makePortBatch(size) };
+  }
+  return sharedBatch;
+}
+
 export function makeSolution(table: LadderTable): Solution {
   const n = table.rows;
+  const f = new Float64Array(4 * n + 4); // one backing store (see LadderSolver)
+  const u = new Uint8Array(n + 2);
   return {
-    vRe: new Float64Array(n), vIm: new Float64Array(n), iRe: new Float64Array(n), iIm: new Float64Array(n),
-    bad: new Uint8Array(n), port: new Float64Array(4), portBad: new Uint8Array(2),
+    vRe: f.subarray(0, n), vIm: f.subarray(n, 2 * n), iRe: f.subarray(2 * n, 3 * n), iIm: f.subarray(3 * n, 4 * n),
+    port: f.subarray(4 * n), bad: u.subarray(0, n), portBad: u.subarray(n),
   };
 }
 
@@ -239,9 +276,53 @@ function cpar(ar: number, ai: number, br: number, bi: number): boolean {
   return true;
 }
 
+let solverStore = new Float64Array(0);
+
+/** The shared working store of LadderSolver (see its constructor), grown as needed. */
+function solverMemory(size: number): Float64Array {
+  if (solverStore.length < size) solverStore = new Float64Array(Math.max(size, 2 * solverStore.length, 1024));
+  return solverStore;
+}
+
+/** Frequencies per pass of portsBatch: bounds its scratch (≤ 1.6 MB at 200 branches) and keeps it in cache. */
+const BATCH = 256;
+
+/** Scratch of portsBatch, shared by every solver (calls never overlap) and grown as needed. */
+interface BatchScratch {
+  zr: Float64Array;
+  zi: Float64Array;
+  /** Forward pass: node voltage and branch current per frequency. */
+  vr: Float64Array;
+  vi: Float64Array;
+  ir: Float64Array;
+  ii: Float64Array;
+  wr: Float64Array;
+  wi: Float64Array;
+  lr: Float64Array;
+  li: Float64Array;
+}
+let scratch: BatchScratch | undefined;
+
+/** Element impedances (count slots) and branch composites and loads (branches × count slots, [b·count + k]). */
+function batchScratch(count: number, branches: number): BatchScratch {
+  const size = count * branches;
+  if (!scratch || scratch.zr.length < count || scratch.wr.length < size) {
+    const k = Math.max(count, scratch?.zr.length ?? 0);
+    const m = Math.max(size, scratch?.wr.length ?? 0);
+    scratch = {
+      zr: new Float64Array(k), zi: new Float64Array(k),
+      vr: new Float64Array(k), vi: new Float64Array(k), ir: new Float64Array(k), ii: new Float64Array(k),
+      wr: new Float64Array(m), wi: new Float64Array(m), lr: new Float64Array(m), li: new Float64Array(m),
+    };
+  }
+  return scratch;
+}
+
 /**
  * Evaluates one ladder at one frequency at a time. Construct once per table (it preallocates everything),
- * optionally `setValues` per design case, then call `impedanceAt` / `solve` per frequency.
+ * optionally `setValues` per design case, then call `impedanceAt` / `solve` per frequency, or `portsBatch`
+ * for many frequencies at once. Working values live only within one such call: solvers share their working
+ * memory, so nothing may rely on it between calls.
  *
  * Two paths give the same numbers: at f > 0 a plain complex pass runs first and hands over to the general
  * (expansion) pass only when a sum cancels exactly, i.e. at a loss-free resonance; DC always takes the
@@ -268,6 +349,8 @@ export class LadderSolver {
   private readonly lr: Float64Array;
   private readonly li: Float64Array;
   private readonly pair = new Float64Array(2);
+  /** 1 where branch b starts with a shunt row (portsBatch). */
+  private readonly shuntBranch: Uint8Array;
 
   constructor(table: LadderTable, values?: ArrayLike<number>) {
     this.table = table;
@@ -279,15 +362,28 @@ export class LadderSolver {
     this.wBase = this.zBase + n * SLOT;
     this.lBase = this.wBase + n * SLOT;
     this.tmp = this.lBase + b * SLOT;
-    this.reg = new Float64Array(this.tmp + 8 * SLOT);
-    this.zr = new Float64Array(n);
-    this.zi = new Float64Array(n);
-    this.wr = new Float64Array(n);
-    this.wi = new Float64Array(n);
-    this.lr = new Float64Array(b);
-    this.li = new Float64Array(b);
+    // Views into one shared store: each typed array above 64 bytes is a separate, slow allocation (and garbage
+    // collection), and a solver's working values live only within one call of impedanceAt, solve or
+    // portsBatch, so solvers can share it (calls never nest).
+    const regLength = this.tmp + 8 * SLOT;
+    const mem = solverMemory(regLength + 4 * n + 2 * b);
+    this.reg = mem.subarray(0, regLength);
+    let at = regLength;
+    const take = (len: number): Float64Array => mem.subarray(at, (at += len));
+    this.zr = take(n);
+    this.zi = take(n);
+    this.wr = take(n);
+    this.wi = take(n);
+    this.lr = take(b);
+    this.li = take(b);
     let last = -1;
-    for (let k = 0; k < b; k++) if (table.role[table.branchStart[k]] === SHUNT) last = k;
+    this.shuntBranch = new Uint8Array(b);
+    for (let k = 0; k < b; k++) {
+      if (table.role[table.branchStart[k]] === SHUNT) {
+        last = k;
+        this.shuntBranch[k] = 1;
+      }
+    }
     this.lastShunt = last;
   }
 
@@ -334,6 +430,221 @@ export class LadderSolver {
     if (f > 0 && this.fast && this.fastBackward(2 * Math.PI * f) && this.fastForward(currentSource, out, elements, f)) return;
     this.backward(f);
     this.forward(f, currentSource, out, elements);
+  }
+
+  // ---- batched fast pass: many frequencies, port quantities only ----
+
+  /**
+   * Port quantities for a unit source at `count` angular frequencies w[k] > 0 (rad/s) in one pass, written to
+   * `out` (see PortBatch). Each loop runs over the frequencies of one ladder row or branch, over typed arrays,
+   * with the arithmetic of fastBackward/fastForward in the same order, so the numbers are bit for bit those of
+   * `solve`. Where that plain pass does not hold (a cancellation, a zero divisor, a value outside the number
+   * range) out.ok[k] is 0 and the caller solves that frequency with `solve`, which takes the general pass or
+   * reports the error. Nothing here throws.
+   */
+  portsBatch(w: Float64Array, count: number, source: SourceKind, out: PortBatch): void {
+    if (this.lastShunt < 0 || !this.fast) {
+      out.ok.fill(0, 0, count);
+      return;
+    }
+    for (let o = 0; o < count; o += BATCH) this.portsChunk(w, o, Math.min(BATCH, count - o), source, out);
+  }
+
+  /** portsBatch for the frequencies o … o + K − 1 (K ≤ BATCH), through the shared scratch. */
+  private portsChunk(w: Float64Array, o: number, K: number, source: SourceKind, out: PortBatch): void {
+    const { table, values } = this;
+    const last = this.lastShunt;
+    const ok = out.ok;
+    for (let k = 0; k < K; k++) ok[o + k] = w[o + k] > 0 ? 1 : 0;
+    // Branches after the last shunt carry nothing, but solve() folds them too (and falls back on a cancellation).
+    const B = table.branches;
+    const sc = batchScratch(K, B);
+    const { zr, zi, wr, wi, lr, li } = sc;
+    const starts = table.branchStart;
+    const snapAt = SNAP;
+    for (let b = 0; b < B; b++) {
+      const base = b * K;
+      for (let i = starts[b]; i < starts[b + 1]; i++) {
+        const v = values[i];
+        const kind = table.kind[i];
+        // the element's impedance at every frequency, formed as fastBackward forms it
+        if (kind === R) {
+          zr.fill(v, 0, K);
+          zi.fill(0, 0, K);
+        } else if (kind === L) {
+          for (let k = 0; k < K; k++) {
+            zr[k] = 0;
+            zi[k] = w[o + k] * v;
+          }
+        } else {
+          for (let k = 0; k < K; k++) {
+            zr[k] = 0;
+            zi[k] = -(1 / (w[o + k] * v));
+          }
+        }
+        const role = table.role[i];
+        if (role !== PLUS && role !== ACROSS) {
+          wr.set(zr.subarray(0, K), base);
+          wi.set(zi.subarray(0, K), base);
+          continue;
+        }
+        const across = role === ACROSS;
+        for (let k = 0; k < K; k++) {
+          const a = zr[k], bb = zi[k];
+          const at = base + k;
+          const pr = wr[at], pi = wi[at];
+          const scale = Math.abs(pr) + Math.abs(pi) + Math.abs(a) + Math.abs(bb);
+          let sr = pr + a;
+          let si = pi + bb;
+          if (Math.abs(sr) <= snapAt * scale) sr = 0;
+          if (Math.abs(si) <= snapAt * scale) si = 0;
+          if (sr === 0 && si === 0) {
+            ok[o + k] = 0;
+            continue;
+          }
+          if (!across) {
+            wr[at] = sr;
+            wi[at] = si;
+            continue;
+          }
+          let ur: number, ui: number;
+          if (Math.abs(sr) >= Math.abs(si)) {
+            const q = si / sr, t = 1 / (sr + si * q);
+            ur = t;
+            ui = -q * t;
+          } else {
+            const q = sr / si, t = 1 / (sr * q + si);
+            ur = q * t;
+            ui = -t;
+          }
+          const qr = pr * a - pi * bb, qi = pr * bb + pi * a;
+          wr[at] = qr * ur - qi * ui;
+          wi[at] = qr * ui + qi * ur;
+        }
+      }
+    }
+    const lastEnd = last * K;
+    for (let k = 0; k < K; k++) {
+      lr[lastEnd + k] = wr[lastEnd + k];
+      li[lastEnd + k] = wi[lastEnd + k];
+    }
+    for (let b = last - 1; b >= 0; b--) {
+      const shunt = table.role[starts[b]] === SHUNT;
+      const base = b * K;
+      const next = base + K;
+      for (let k = 0; k < K; k++) {
+        const ar = wr[base + k], ai = wi[base + k];
+        const br = lr[next + k], bi = li[next + k];
+        const scale = Math.abs(ar) + Math.abs(ai) + Math.abs(br) + Math.abs(bi);
+        let sr = ar + br;
+        let si = ai + bi;
+        if (Math.abs(sr) <= snapAt * scale) sr = 0;
+        if (Math.abs(si) <= snapAt * scale) si = 0;
+        if (sr === 0 && si === 0) {
+          ok[o + k] = 0;
+          continue;
+        }
+        if (!shunt) {
+          lr[base + k] = sr;
+          li[base + k] = si;
+          continue;
+        }
+        let ur: number, ui: number;
+        if (Math.abs(sr) >= Math.abs(si)) {
+          const q = si / sr, t = 1 / (sr + si * q);
+          ur = t;
+          ui = -q * t;
+        } else {
+          const q = sr / si, t = 1 / (sr * q + si);
+          ur = q * t;
+          ui = -t;
+        }
+        const qr = ar * br - ai * bi, qi = ar * bi + ai * br;
+        lr[base + k] = qr * ur - qi * ui;
+        li[base + k] = qr * ui + qi * ur;
+      }
+    }
+    // Forward, one branch at a time over all frequencies (independent iterations: the divisions overlap).
+    const { vr, vi, ir, ii } = sc;
+    const { sRe, sIm, fRe, fIm } = out;
+    if (source === 'current') {
+      for (let k = 0; k < K; k++) {
+        ir[k] = 1;
+        ii[k] = 0;
+        vr[k] = lr[k];
+        vi[k] = li[k];
+        sRe[o + k] = lr[k]; // the source's voltage: the input impedance
+        sIm[o + k] = li[k];
+      }
+    } else {
+      for (let k = 0; k < K; k++) {
+        const l0r = lr[k], l0i = li[k];
+        vr[k] = 1;
+        vi[k] = 0;
+        if (l0r === 0 && l0i === 0) {
+          ok[o + k] = 0;
+          continue;
+        }
+        if (Math.abs(l0r) >= Math.abs(l0i)) {
+          const q = l0i / l0r, t = 1 / (l0r + l0i * q);
+          ir[k] = t;
+          ii[k] = -q * t;
+        } else {
+          const q = l0r / l0i, t = 1 / (l0r * q + l0i);
+          ir[k] = q * t;
+          ii[k] = -t;
+        }
+        sRe[o + k] = ir[k]; // the source's current
+        sIm[o + k] = ii[k];
+      }
+    }
+    const shuntAt = this.shuntBranch;
+    for (let b = 0; b <= last; b++) {
+      const at = b * K;
+      const next = at + K;
+      if (shuntAt[b]) {
+        for (let k = 0; k < K; k++) {
+          // solve() divides by the branch impedance for the branch current: a zero one takes the general pass.
+          if (wr[at + k] === 0 && wi[at + k] === 0) ok[o + k] = 0;
+        }
+        if (b === last) continue;
+        for (let k = 0; k < K; k++) {
+          const nr = lr[next + k], ni = li[next + k];
+          if (nr === 0 && ni === 0) {
+            ok[o + k] = 0;
+            continue;
+          }
+          let ur: number, ui: number;
+          if (Math.abs(nr) >= Math.abs(ni)) {
+            const q = ni / nr, t = 1 / (nr + ni * q);
+            ur = t;
+            ui = -q * t;
+          } else {
+            const q = nr / ni, t = 1 / (nr * q + ni);
+            ur = q * t;
+            ui = -t;
+          }
+          const xr = vr[k], xi = vi[k];
+          ir[k] = xr * ur - xi * ui;
+          ii[k] = xr * ui + xi * ur;
+        }
+      } else {
+        for (let k = 0; k < K; k++) {
+          const nr = lr[next + k], ni = li[next + k];
+          const cr = ir[k], ci = ii[k];
+          vr[k] = cr * nr - ci * ni;
+          vi[k] = cr * ni + ci * nr;
+        }
+      }
+    }
+    for (let k = 0; k < K; k++) {
+      const x = o + k;
+      const pr = sRe[x], pi = sIm[x];
+      const fr = vr[k], fi = vi[k];
+      fRe[x] = fr;
+      fIm[x] = fi;
+      if (!(Math.abs(pr) < Infinity && Math.abs(pi) < Infinity && Math.abs(fr) < Infinity && Math.abs(fi) < Infinity)) ok[x] = 0;
+    }
   }
 
   // ---- fast pass (f > 0, nothing cancels) ----
@@ -645,6 +956,15 @@ export function checkFrequencies(freqs: ArrayLike<number>, what = 'frequency'): 
   }
 }
 
+/** portsBatch over a frequency list in Hz (the angular frequencies formed as solve() forms them). */
+function sweepBatch(solver: LadderSolver, freqs: ArrayLike<number>, source: SourceKind): PortBatch {
+  const K = freqs.length;
+  const { w, batch } = batchBuffers(K);
+  for (let k = 0; k < K; k++) w[k] = 2 * Math.PI * freqs[k];
+  solver.portsBatch(w, K, source, batch);
+  return batch;
+}
+
 export interface ComplexArrays {
   re: Float64Array;
   im: Float64Array;
@@ -658,8 +978,15 @@ export function impedance(table: LadderTable, freqs: ArrayLike<number>, values?:
   checkFrequencies(freqs);
   const solver = new LadderSolver(table, values);
   const re = new Float64Array(freqs.length), im = new Float64Array(freqs.length);
+  // With a unit current source, the source voltage is the impedance.
+  const batch = sweepBatch(solver, freqs, 'current');
   const z = new Float64Array(2);
   for (let i = 0; i < freqs.length; i++) {
+    if (batch.ok[i]) {
+      re[i] = batch.sRe[i];
+      im[i] = batch.sIm[i];
+      continue;
+    }
     if (!solver.impedanceAt(freqs[i], z)) {
       const why =
         solver.lastShunt < 0
@@ -684,7 +1011,13 @@ export function transfer(table: LadderTable, freqs: ArrayLike<number>, values?: 
   const solver = new LadderSolver(table, values);
   const sol = makeSolution(table);
   const re = new Float64Array(freqs.length), im = new Float64Array(freqs.length);
+  const batch = sweepBatch(solver, freqs, 'voltage');
   for (let i = 0; i < freqs.length; i++) {
+    if (batch.ok[i]) {
+      re[i] = batch.fRe[i];
+      im[i] = batch.fIm[i];
+      continue;
+    }
     solver.solve(freqs[i], 'voltage', sol, false);
     if (sol.portBad[1]) {
       throw numError(

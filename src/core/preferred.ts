@@ -51,13 +51,18 @@ const SNAP = 1e-9;
 /** Below the normal double range the decade arithmetic loses digits. */
 const SMALLEST = 1e-300;
 
+const clip = (v: unknown): string => {
+  const t = String(v);
+  return t.length > 40 ? `${t.slice(0, 37)}...` : t;
+};
+
 /** `E24`, `e24`, `24` or 24 → 'E24'. */
 export function parseSeries(series: unknown, what = 'series'): SeriesName {
   if (series === undefined || series === null || series === '') return 'E24';
   const key = typeof series === 'number' ? `E${series}` : typeof series === 'string' ? series.trim().toUpperCase() : '';
   const name = (/^\d+$/.test(key) ? `E${key}` : key) as SeriesName;
   if (!(name in E_SERIES)) {
-    throw valueError(`${what} '${String(series)}' is not an IEC 60063 series: use ${SERIES_NAMES.join(', ')} (or the number alone).`);
+    throw valueError(`${what} '${clip(series)}' is not an IEC 60063 series: use ${SERIES_NAMES.join(', ')} (or the number alone).`);
   }
   return name;
 }
@@ -66,7 +71,7 @@ function parseDirection(direction: unknown, what = 'direction'): Direction {
   if (direction === undefined || direction === null || direction === '') return 'nearest';
   const d = typeof direction === 'string' ? direction.trim().toLowerCase() : '';
   if (!(DIRECTIONS as readonly string[]).includes(d)) {
-    throw valueError(`${what} '${String(direction)}' is not allowed: use ${DIRECTIONS.join(', ')}.`);
+    throw valueError(`${what} '${clip(direction)}' is not allowed: use ${DIRECTIONS.join(', ')}.`);
   }
   return d as Direction;
 }

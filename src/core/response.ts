@@ -1,6 +1,8 @@
 import { HcError, naError, numError, valueError } from './errors';
 import { describeElement, LadderTable } from './ladder';
-import { describeFrequency, I_UNBOUNDED, LadderSolver, makeSolution, Solution, SourceKind, V_UNBOUNDED } from './network';
+import {
+  batchBuffers, describeFrequency, I_UNBOUNDED, LadderSolver, makeSolution, PortBatch, Solution, SourceKind, V_UNBOUNDED,
+} from './network';
 import { makeSpectrum, order, Spectrum } from './spectrum';
 
 /**
@@ -82,14 +84,32 @@ export function response(spec: Spectrum, table: LadderTable, opts: ResponseOptio
     throw naError(`element ${element + 1} is not in the ladder; use rows 1 to ${table.rows}.`);
   }
   const solver = new LadderSolver(table, opts.values);
-  const sol = makeSolution(table);
+  let sol: Solution | undefined; // only for harmonics the batched pass leaves to solve()
   const N = order(spec);
   const out = makeSpectrum(spec.f0, N);
+  // Port quantities (far end, source) for all harmonics n ≥ 1 in one batched pass; the rest one at a time.
+  const batch = element < 0 ? harmonicBatch(solver, spec, source) : undefined;
   for (let n = 0; n <= N; n++) {
     const cr = spec.re[n], ci = n === 0 ? 0 : spec.im[n];
     if (cr === 0 && ci === 0) continue;
-    solver.solve(n * spec.f0, source, sol, element >= 0);
     let qr: number, qi: number, ok: boolean;
+    if (batch && n >= 1 && batch.ok[n - 1]) {
+      if (quantity === 'V') {
+        qr = batch.fRe[n - 1];
+        qi = batch.fIm[n - 1];
+      } else if (source === 'voltage') {
+        qr = batch.sRe[n - 1];
+        qi = batch.sIm[n - 1];
+      } else {
+        qr = 1;
+        qi = 0;
+      }
+      out.re[n] = cr * qr - ci * qi;
+      out.im[n] = cr * qi + ci * qr;
+      continue;
+    }
+    sol ??= makeSolution(table);
+    solver.solve(n * spec.f0, source, sol, element >= 0);
     if (element >= 0) {
       const bad = sol.bad[element] & (quantity === 'V' ? V_UNBOUNDED : I_UNBOUNDED);
       ok = bad === 0;
@@ -116,6 +136,18 @@ export function response(spec: Spectrum, table: LadderTable, opts: ResponseOptio
     out.im[n] = n === 0 ? 0 : cr * qi + ci * qr;
   }
   return out;
+}
+
+/** portsBatch at the harmonics n = 1…N of a spectrum (slot n − 1), frequencies formed as solve(n·f0) forms them. */
+function harmonicBatch(solver: LadderSolver, spec: Spectrum, source: SourceKind): PortBatch {
+  const N = order(spec);
+  const { w, batch } = batchBuffers(N);
+  for (let n = 1; n <= N; n++) {
+    const f = n * spec.f0;
+    w[n - 1] = 2 * Math.PI * f;
+  }
+  solver.portsBatch(w, N, source, batch);
+  return batch;
 }
 
 /**

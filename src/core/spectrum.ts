@@ -44,8 +44,12 @@ function wrapDegrees(deg: number): number {
 /** The DESIGN §2 spectrum table: rows n = 0..N of [n, frequency Hz, amplitude (peak), phase deg]. */
 export function spectrumToTable(s: Spectrum): number[][] {
   const N = order(s);
+  if (N > 0 && !Number.isFinite(N * s.f0)) {
+    throw numError(`the harmonic frequencies exceed the number range: ${N} × ${s.f0} Hz; lower the frequency or the harmonics.`);
+  }
   let big = 0;
   for (let n = 0; n <= N; n++) big = Math.max(big, Math.hypot(s.re[n], s.im[n]));
+  if (!Number.isFinite(big)) throw numError('an amplitude of the spectrum exceeds the number range (about 1.8e308); scale the inputs down.');
   const rows: number[][] = new Array(N + 1);
   for (let n = 0; n <= N; n++) {
     if (n === 0) {
@@ -60,6 +64,14 @@ export function spectrumToTable(s: Spectrum): number[][] {
 }
 
 const isBlank = (v: unknown): boolean => v === null || v === undefined || (typeof v === 'string' && v.trim() === '');
+
+/** Numbers written as text in a table: decimal notation only (no hex, no "Infinity"). */
+const DECIMAL_TEXT = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*$/;
+const numberFromText = (c: string): number => (c.length <= 64 && DECIMAL_TEXT.test(c) ? Number(c) : NaN);
+const shown = (c: unknown): string => {
+  const t = JSON.stringify(c) ?? String(c);
+  return t.length > 40 ? `${t.slice(0, 37)}...` : t;
+};
 
 /**
  * Read a spectrum table (a range or nested array of [n, frequency, amplitude, phase] rows). One leading
@@ -79,14 +91,18 @@ export function spectrumFromTable(grid: unknown, what = 'spectrum'): Spectrum {
       throw valueError(`${what} must have 4 columns (n, frequency, amplitude, phase); row ${r + 1} has ${row.length}.`);
     }
     const cells = row.slice(0, 4);
-    if (rows.length === 0 && !sawHeader && cells.some((c) => typeof c === 'string' && !isBlank(c) && !isFinite(Number(c)))) {
+    if (rows.length === 0 && !sawHeader && cells.some((c) => typeof c === 'string' && !isBlank(c) && Number.isNaN(numberFromText(c)))) {
       sawHeader = true; // one leading header row of text
       continue;
     }
+    if (rows.length >= LIMITS.spectrumRows) {
+      throw numError(`${what} has more than ${LIMITS.spectrumRows} data rows; at most ${LIMITS.spectrumRows} are allowed.`);
+    }
     const nums = cells.map((c, k) => {
-      const v = typeof c === 'string' && !isBlank(c) ? Number(c) : c;
+      const v = typeof c === 'string' && !isBlank(c) ? numberFromText(c) : c;
       if (typeof v !== 'number' || Number.isNaN(v)) {
-        throw valueError(`${what}: row ${r + 1}, column ${k + 1} must be a number, got ${JSON.stringify(c)}.`);
+        const why = rows.length > 0 || sawHeader ? ' (only one header row, at the top, is skipped)' : '';
+        throw valueError(`${what}: row ${r + 1}, column ${k + 1} must be a number, got ${shown(c)}${why}.`);
       }
       if (!Number.isFinite(v)) throw numError(`${what}: row ${r + 1}, column ${k + 1} must be finite.`);
       return v;
@@ -96,7 +112,10 @@ export function spectrumFromTable(grid: unknown, what = 'spectrum'): Spectrum {
     }
     rows.push(nums);
   }
-  if (rows.length === 0) throw valueError(`${what} holds no rows; expected rows [n, frequency, amplitude, phase].`);
+  if (rows.length === 0) {
+    const header = sawHeader ? ' (its only row with text was taken for a header; numbers written as text must be plain decimals)' : '';
+    throw valueError(`${what} holds no rows; expected rows [n, frequency, amplitude, phase]${header}.`);
+  }
 
   let N = 0;
   let f0 = 0;
@@ -109,6 +128,10 @@ export function spectrumFromTable(grid: unknown, what = 'spectrum'): Spectrum {
     if (n > 0 && f0 === 0) f0 = f / n;
     N = Math.max(N, n);
   }
+  if (N > 0 && !Number.isFinite(1 / f0)) {
+    throw numError(`${what}: the fundamental ${f0} Hz is too low to have a period within the number range.`);
+  }
+  if (!Number.isFinite(N * f0)) throw numError(`${what}: harmonic ${N} of ${f0} Hz exceeds the number range.`);
   for (const [n, f] of rows) {
     if (n > 0 && Math.abs(f - n * f0) > 1e-9 * n * f0) {
       throw numError(`${what}: frequency ${f} Hz at n = ${n} is not n × the fundamental ${f0} Hz implied by the other rows.`);
@@ -119,10 +142,19 @@ export function spectrumFromTable(grid: unknown, what = 'spectrum'): Spectrum {
     const rad = (ph * Math.PI) / 180;
     if (n === 0) {
       // The DC row's amplitude is the signed mean (DESIGN §2); a phase of ±180 flips its sign.
-      s.re[0] += Math.abs(wrapDegrees(ph)) > 90 ? -a : a;
+      const w = Math.abs(wrapDegrees(ph));
+      if (w > 1e-9 && w < 180 - 1e-9) {
+        throw numError(`${what}: the DC (n = 0) row's phase must be 0 (or ±180 for a negative mean), got ${ph}.`);
+      }
+      s.re[0] += w > 90 ? -a : a;
     } else {
       s.re[n] += a * Math.cos(rad);
       s.im[n] += a * Math.sin(rad);
+    }
+  }
+  for (let n = 0; n <= N; n++) {
+    if (!Number.isFinite(s.re[n]) || !Number.isFinite(s.im[n])) {
+      throw numError(`${what}: the rows for n = ${n} add up beyond the number range (about 1.8e308).`);
     }
   }
   return s;

@@ -1,9 +1,11 @@
-import { extremes } from './extremes';
+import { scaledExtremes } from './extremes-scaled';
 import { LadderTable } from './ladder';
 import { SourceKind } from './network';
 import { elementResponses } from './response';
 import { power, rms } from './measures';
 import { makeSpectrum, Spectrum } from './spectrum';
+import { numError } from './errors';
+import { grouped, LIMITS } from './limits';
 
 /**
  * Per-part stress (DESIGN §3 HC.STRESS): for every ladder row, the RMS and largest |value| over a period of
@@ -34,6 +36,14 @@ export interface Stress {
 }
 
 export function stress(spec: Spectrum, table: LadderTable, opts: StressOptions = {}): Stress {
+  const points = spec && spec.re ? spec.re.length : 0;
+  if (table && table.rows * points > LIMITS.stressWork) {
+    throw numError(
+      `STRESS of ${table.rows} ladder rows at ${grouped(points)} harmonics (n = 0…${points - 1}) makes ` +
+        `${grouped(table.rows * points)} row-harmonics; at most ${grouped(LIMITS.stressWork)} are evaluated in one cell ` +
+        '(each row needs two searches for its peaks). Use fewer harmonics, or fewer ladder rows.',
+    );
+  }
   const res = elementResponses(spec, table, { source: opts.source, values: opts.values });
   const rows = table.rows;
   const stride = res.harmonics + 1;
@@ -70,6 +80,6 @@ function largestMagnitude(s: Spectrum): number {
   let any = false;
   for (let n = 0; n < s.re.length && !any; n++) any = s.re[n] !== 0 || s.im[n] !== 0;
   if (!any) return 0; // a part that carries nothing (e.g. a resistor across a short at every harmonic)
-  const e = extremes(s);
+  const e = scaledExtremes(s);
   return Math.max(Math.abs(e.max), Math.abs(e.min));
 }

@@ -1,7 +1,7 @@
 import { HcError, numError, valueError } from './errors';
-import { peak, pp, valley } from './extremes';
+import { peak, pp, valley } from './extremes-scaled';
 import { describeElement, LadderTable, withValues } from './ladder';
-import { LIMITS } from './limits';
+import { grouped, LIMITS, SPREAD_MEASURE_WEIGHT } from './limits';
 import { crest, mean, rms, thd } from './measures';
 import { I_UNBOUNDED, LadderSolver, makeSolution, Solution, SourceKind, V_UNBOUNDED } from './network';
 import { Quantity, response } from './response';
@@ -73,7 +73,8 @@ export interface Spread {
 export function parseMeasure(measure: unknown, what = 'measure'): Measure {
   const key = typeof measure === 'string' ? measure.trim().toLowerCase() : '';
   if ((MEASURES as readonly string[]).includes(key)) return key as Measure;
-  const given = typeof measure === 'string' ? `'${measure}'` : String(measure);
+  const text = typeof measure === 'string' ? measure : String(measure);
+  const given = typeof measure === 'string' ? `'${text.length > 40 ? `${text.slice(0, 37)}...` : text}'` : text.slice(0, 40);
   throw valueError(`${what} ${given} is not known; use one of ${MEASURES.join(', ')}.`);
 }
 
@@ -247,6 +248,7 @@ export function spread(spec: Spectrum, table: LadderTable, measure: Measure | st
   const source = opts.source ?? 'voltage';
   if (opts.seed !== undefined && !Number.isInteger(opts.seed)) throw valueError(`seed must be a whole number, got ${opts.seed}.`);
 
+  checkSpreadWork(0, order(spec) + 1, table.rows, m);
   // The nominal goes through response() itself: it validates every argument and words every error.
   const nominalTable = opts.values ? withValues(table, opts.values) : table;
   const base = Float64Array.from(nominalTable.value);
@@ -274,6 +276,7 @@ export function spread(spec: Spectrum, table: LadderTable, measure: Measure | st
     cases = 2 ** k;
   } else cases = trials;
   result.cases = cases;
+  checkSpreadWork(cases, order(spec) + 1, table.rows, m);
 
   const work = Float64Array.from(base);
   const lo = new Float64Array(k), hi = new Float64Array(k);
@@ -307,6 +310,19 @@ export function spread(spec: Spectrum, table: LadderTable, measure: Measure | st
     }
   }
   return result;
+}
+
+/** LIMITS.spreadWork: every case solves the ladder and takes the measure at every harmonic. */
+function checkSpreadWork(cases: number, points: number, rows: number, m: Measure): void {
+  const extremesMeasure = m === 'peak' || m === 'valley' || m === 'pp' || m === 'crest';
+  const weight = extremesMeasure ? SPREAD_MEASURE_WEIGHT.extremes : SPREAD_MEASURE_WEIGHT.sums;
+  const work = (cases + 1) * points * (rows + weight);
+  if (work <= LIMITS.spreadWork) return;
+  throw numError(
+    `SPREAD would evaluate ${grouped(cases + 1)} cases (with the nominal) × ${grouped(points)} harmonics × ` +
+      `(${rows} ladder rows + ${weight} for the measure ${m}) = ${grouped(work)}; at most ${grouped(LIMITS.spreadWork)} ` +
+      'fit in one cell. Use fewer trials, fewer toleranced parts (each doubles the corners), fewer harmonics or fewer ladder rows.',
+  );
 }
 
 /** "At the tolerance corner L1 (row 1) +20 %, C1 (row 2) −20 %", for messages. */

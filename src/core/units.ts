@@ -1,4 +1,5 @@
 import { finite, numError, valueError } from './errors';
+import { LIMITS } from './limits';
 
 /**
  * Engineering values as people write them in a bill of materials (DESIGN §2 value column, §3 HC.VALUE / HC.ENG):
@@ -35,22 +36,28 @@ const FORMS = 'write a number (10, 1e-6, 2.2E3), a prefixed value (4.7k, 100 nF,
 const DECIMAL = /^([+\-\u2212]?)(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+\-\u2212]?\d+))?\s*(\S*)$/;
 const LETTER_CODE = /^([+\-\u2212]?)(\d*)([Rr\u00b5\u03bcfpnumkKMGT])(\d+)\s*(\S*)$/;
 
+/** A table entry for `key`, never an inherited property (a text such as "constructor" names nothing). */
+function own<T>(table: Readonly<Record<string, T>>, key: string): T | undefined {
+  return Object.prototype.hasOwnProperty.call(table, key) ? table[key] : undefined;
+}
+
 function unitOf(word: string): Unit | undefined {
-  return UNIT_EXACT[word] ?? UNIT_FOLDED[word.toLowerCase()];
+  return own(UNIT_EXACT, word) ?? own(UNIT_FOLDED, word.toLowerCase());
 }
 
 /** Split a suffix into prefix exponent and unit. Exact-case readings win, so a lone `f` is femto and `F` farad. */
 function readSuffix(s: string): { exp: number; unit: Unit | null } | null {
   if (s === '') return { exp: 0, unit: null };
-  if (UNIT_EXACT[s]) return { exp: 0, unit: UNIT_EXACT[s] };
-  const p = PREFIX[s[0]];
+  const exact = own(UNIT_EXACT, s);
+  if (exact) return { exp: 0, unit: exact };
+  const p = own(PREFIX, s[0]);
   if (p !== undefined) {
     const rest = s.slice(1);
     if (rest === '') return { exp: p, unit: null };
     const u = unitOf(rest);
     if (u) return { exp: p, unit: u };
   }
-  const u = UNIT_FOLDED[s.toLowerCase()];
+  const u = own(UNIT_FOLDED, s.toLowerCase());
   return u ? { exp: 0, unit: u } : null;
 }
 
@@ -58,6 +65,7 @@ function readSuffix(s: string): { exp: number; unit: Unit | null } | null {
 export function normalizeUnit(unit: unknown, what = 'unit'): Unit | null {
   if (unit === undefined || unit === null) return null;
   if (typeof unit !== 'string') throw valueError(`${what} must be text, one of ${UNIT_LIST}.`);
+  if (unit.length > LIMITS.textLength) throw valueError(`${what} '${quote(unit)}' is not a known unit: use ${UNIT_LIST}.`);
   const u = unit.trim();
   if (u === '') return null;
   const found = unitOf(u);
@@ -97,6 +105,10 @@ export function parseValue(input: unknown, unit?: string | null, what = 'value')
   if (typeof input === 'number') return finite(input, what) + 0;
   if (input === undefined || input === null) throw valueError(`${what} is missing: ${FORMS}.`);
   if (typeof input !== 'string') throw valueError(`${what} must be a number or text: ${FORMS}.`);
+  // The patterns below backtrack quadratically on long digit runs; no engineering value is this long.
+  if (input.length > LIMITS.textLength) {
+    throw numError(`${what} is a text of ${input.length} characters; a value is at most ${LIMITS.textLength} characters long.`);
+  }
   const text = input.trim();
   if (text === '') throw valueError(`${what} is empty: ${FORMS}.`);
 
@@ -120,7 +132,7 @@ export function parseValue(input: unknown, unit?: string | null, what = 'value')
         throw valueError(`${what} '${quote(text)}' mixes R (ohms, IEC 60062) with the unit ${tail.unit}: ${FORMS}.`);
       }
       checkUnit(isR ? OHM : tail.unit, wanted, text, what, isR && !tail.unit);
-      return toNumber(c[1], c[2], c[4], isR ? 0 : PREFIX[c[3]], text, what);
+      return toNumber(c[1], c[2], c[4], isR ? 0 : (own(PREFIX, c[3]) as number), text, what);
     }
   }
   throw valueError(`could not read ${what} '${quote(text)}': ${FORMS}; units ${UNIT_LIST}.`);

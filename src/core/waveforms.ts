@@ -1,6 +1,6 @@
 import { finite, HcError, numError, valueError } from './errors';
 import { realSpectrum } from './fft';
-import { LIMITS } from './limits';
+import { grouped, LIMITS } from './limits';
 import { checkHarmonics, makeSpectrum, order, Spectrum } from './spectrum';
 
 /*
@@ -79,6 +79,13 @@ function nonNegative(x: number, what: string): number {
   return x;
 }
 
+/** high − low must be a number: levels near ±1.8e308 of opposite sign overflow it. */
+function levels(low: number, high: number): void {
+  if (!Number.isFinite(high - low)) {
+    throw numError(`high − low (${high} − ${low}) exceeds the number range (about 1.8e308); scale the levels down.`);
+  }
+}
+
 /** Copy a list of numbers into a Float64Array, checking each element. */
 function numbers(list: ArrayLike<number>, what: string, max: number): Float64Array {
   if (list === null || typeof list !== 'object' || typeof (list as ArrayLike<number>).length !== 'number') {
@@ -150,6 +157,10 @@ export function pulse(
   rise = nonNegative(rise ?? 0, 'rise');
   fall = nonNegative(fall ?? 0, 'fall');
   delay = finite(delay ?? 0, 'delay');
+  levels(low, high);
+  if (!Number.isFinite(delay * frequency)) {
+    throw numError(`delay × frequency (${delay} s × ${frequency} Hz) exceeds the number range; give a delay within a period.`);
+  }
 
   const s = makeSpectrum(frequency, harmonics);
   if (duty === 0 || duty === 1) {
@@ -194,7 +205,8 @@ export function ramp(low: number, high: number, frequency: number, harmonics: nu
   finite(high, 'high');
   positiveFrequency(frequency, 'frequency');
   checkHarmonics(harmonics);
-  const rho = inUnit(riseFraction ?? 0.5, 'riseFraction');
+  const rho = inUnit(riseFraction ?? 0.5, 'rise_fraction');
+  levels(low, high);
   const A = high - low;
   const s = makeSpectrum(frequency, harmonics);
   s.re[0] = low + A / 2;
@@ -226,7 +238,7 @@ export function ramp(low: number, high: number, frequency: number, harmonics: nu
  */
 export function rectified(peak: number, lineFrequency: number, harmonics: number, mode: string = 'full'): Spectrum {
   finite(peak, 'peak');
-  positiveFrequency(lineFrequency, 'lineFrequency');
+  positiveFrequency(lineFrequency, 'line_frequency');
   checkHarmonics(harmonics);
   const m = mode ?? 'full';
   const key = typeof m === 'string' ? m.trim().toLowerCase() : m;
@@ -262,6 +274,12 @@ export function pwl(
   checkHarmonics(harmonics);
   const K = t.length;
   if (K === 0) throw valueError('times and values must hold at least one point.');
+  if (K * (harmonics + 1) > LIMITS.pwlWork) {
+    throw numError(
+      `PWL with ${K} points and ${harmonics} harmonics needs points × (harmonics + 1) = ${grouped(K * (harmonics + 1))} ` +
+        `segment terms; at most ${grouped(LIMITS.pwlWork)} are allowed. Use fewer points or fewer harmonics.`,
+    );
+  }
   if (v.length !== K) {
     throw valueError(`times and values must have the same length, got ${K} times and ${v.length} values.`);
   }
@@ -274,6 +292,12 @@ export function pwl(
     }
   }
   const span = t[K - 1] - t[0];
+  if (!Number.isFinite(span)) throw numError(`times span ${t[0]} … ${t[K - 1]} s, beyond the number range.`);
+  for (let k = 0; k < K; k++) {
+    if (!Number.isFinite(v[k] - v[(k + 1) % K])) {
+      throw numError(`values: the step from point ${k + 1} exceeds the number range (about 1.8e308); scale the values down.`);
+    }
+  }
   let T: number;
   if (period === undefined || period === null) {
     if (!(span > 0)) throw numError('times span no time; give a period > 0 or points at different times.');
@@ -307,7 +331,7 @@ function addSegment(s: Spectrum, T: number, ta: number, d: number, va: number, v
   const im = s.im;
   const N = re.length - 1;
   const w = d / T;
-  const vm = 0.5 * (va + vb);
+  const vm = 0.5 * va + 0.5 * vb; // halves first: two levels near 1.8e308 do not overflow
   const dv = vb - va;
   re[0] += w * vm;
   if (N === 0) return;
@@ -360,7 +384,7 @@ function addSegment(s: Spectrum, T: number, ta: number, d: number, va: number, v
 export function sampled(values: Float64Array | number[], sampleRate: number, harmonics: number): Spectrum {
   const x = numbers(values, 'values', LIMITS.samples);
   if (x.length === 0) throw valueError('values must hold at least one sample.');
-  positiveFrequency(sampleRate, 'sampleRate');
+  positiveFrequency(sampleRate, 'sample_rate');
   checkHarmonics(harmonics);
   const f0 = sampleRate / x.length;
   return realSpectrum(x, harmonics, f0);

@@ -1,5 +1,7 @@
 import type { SimpleCellAddress } from 'hyperformula';
 import type { CallResult } from '../functions/invoke';
+import { sameArgs } from './memo-key';
+import type { Plain } from './values';
 
 /**
  * Per-engine state shared by the function plugin and the engine builder. HyperFormula hands the config's
@@ -19,8 +21,13 @@ export interface EngineContext {
   pending: Map<string, string>;
   /** Size fixed for each (call node, cell) when the formula was read, and why it is provisional if so. */
   predicted: WeakMap<object, Map<string, PredictedSize>>;
-  /** Results of recent table calls keyed by function and arguments, so the size method's work is reused. */
-  memo: Map<string, CallResult>;
+  /**
+   * Results of recent table calls keyed by function and a hash of the arguments (memo-key.ts), so the size
+   * method's work is reused; each entry keeps its arguments to confirm a hit.
+   */
+  memo: Map<string, MemoEntry>;
+  /** HC calls being evaluated, outermost first: above 1, the call is an argument of another HC call. */
+  depth: number;
   /** Called after each table call that was computed (not served from memo); drives the CLI's progress bar. */
   onCall?: (name: string) => void;
 }
@@ -32,13 +39,16 @@ export interface PredictedSize {
   provisional?: string;
 }
 
+export interface MemoEntry {
+  args: readonly Plain[];
+  result: CallResult;
+}
+
 export const CONTEXT_KIND = 'harmonic-cells-engine-context';
 export const MEMO_ENTRIES = 128;
-/** Argument keys longer than this (very large ranges) are not memoised: hashing them costs as much as the call. */
-export const MEMO_KEY_CHARS = 4_000_000;
 
 export function newContext(): EngineContext {
-  return { kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map() };
+  return { kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map(), depth: 0 };
 }
 
 export function isEngineContext(v: unknown): v is EngineContext {
@@ -58,17 +68,23 @@ export function recordPrediction(ctx: EngineContext, node: object, where: string
   perCell.set(where, p);
 }
 
-/** A memoised table call: most recent last, oldest dropped beyond MEMO_ENTRIES. */
-export function memoised(ctx: EngineContext, key: string | undefined, compute: () => CallResult): CallResult {
+/** A memoised table call: most recent last, oldest dropped beyond MEMO_ENTRIES; a hash collision recomputes. */
+export function memoised(
+  ctx: EngineContext,
+  key: string | undefined,
+  args: readonly Plain[],
+  compute: () => CallResult,
+): CallResult {
   if (key === undefined) return compute();
   const hit = ctx.memo.get(key);
-  if (hit) {
+  if (hit && sameArgs(hit.args, args)) {
     ctx.memo.delete(key);
     ctx.memo.set(key, hit);
-    return hit;
+    return hit.result;
   }
   const result = compute();
-  ctx.memo.set(key, result);
+  ctx.memo.delete(key);
+  ctx.memo.set(key, { args, result });
   if (ctx.memo.size > MEMO_ENTRIES) ctx.memo.delete(ctx.memo.keys().next().value as string);
   return result;
 }

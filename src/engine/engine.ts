@@ -108,14 +108,20 @@ export function settleSpills(hf: HyperFormula, maxPasses = 32): number {
     if (signature === previous) break;
     previous = signature;
     ctx.pending.clear();
-    hf.batch(() => {
+    // Suspended evaluation rather than hf.batch: one batch's undo entry is rescanned on every edit inside
+    // it (HyperFormula's undo clean-up), which made re-reading 10,000 formulas take tens of seconds.
+    const suspended = hf.isEvaluationSuspended();
+    if (!suspended) hf.suspendEvaluation();
+    try {
       for (const key of keys) {
         const address = parseAddressKey(key);
         if (hf.getSheetName(address.sheet) === undefined) continue;
         const formula = hf.getCellFormula(address);
         if (formula !== undefined) hf.setCellContents(address, [[formula]]);
       }
-    });
+    } finally {
+      if (!suspended) hf.resumeEvaluation();
+    }
   }
   return ctx.pending.size;
 }

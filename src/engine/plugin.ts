@@ -13,15 +13,8 @@ import {
 } from 'hyperformula';
 import { invoke } from '../functions/invoke';
 import { FunctionSpec } from '../functions/spec';
-import {
-  addressKey,
-  EngineContext,
-  isEngineContext,
-  MEMO_KEY_CHARS,
-  memoised,
-  newContext,
-  recordPrediction,
-} from './context';
+import { addressKey, EngineContext, isEngineContext, memoised, newContext, recordPrediction } from './context';
+import { callKey } from './memo-key';
 import { ErrorArgument, fromResult, Plain, sizeOf, toPlain } from './values';
 
 /**
@@ -81,6 +74,9 @@ function parametersOf(spec: FunctionSpec): { parameters: FunctionArgument[]; rep
   return last?.repeating ? { parameters, repeatLastArgs: 1 } : { parameters };
 }
 
+/** Argument types whose value's size never sets the size of the call's result (HyperFormula's own rule). */
+const UNSIZED = new Set<FunctionArgumentType>([FunctionArgumentType.RANGE, FunctionArgumentType.ANY]);
+
 const methodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}`;
 const sizeMethodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}_size`;
 
@@ -99,10 +95,18 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     const metadata = this.metadata(functionId(spec));
     // runFunction's parameter types are internal to HyperFormula; the shapes are those it passes itself.
     const run = this.runFunction as unknown as (a: unknown[], s: EvalState, m: FunctionMetadata, f: (...v: unknown[]) => unknown) => unknown;
-    return run(node.args, state, metadata, (...values: unknown[]) => this.callTable(spec, values));
+    const ctx = this.hc;
+    ctx.depth++;
+    try {
+      // depth > 1 here: this call is an argument of another HC call, which only reads its result.
+      const nested = ctx.depth > 1;
+      return run(node.args, state, metadata, (...values: unknown[]) => this.callTable(spec, values, nested));
+    } finally {
+      ctx.depth--;
+    }
   }
 
-  private callTable(spec: FunctionSpec, values: unknown[]): unknown {
+  private callTable(spec: FunctionSpec, values: unknown[], nested: boolean): unknown {
     let args: Plain[];
     try {
       args = values.map(toPlain);
@@ -111,17 +115,13 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
       throw e;
     }
     const ctx = this.hc;
-    let key: string | undefined;
-    if (spec.result === 'matrix') {
-      key = `${spec.name}\u0000${JSON.stringify(args)}`;
-      if (key.length > MEMO_KEY_CHARS) key = undefined;
-    }
-    const result = memoised(ctx, key, () => {
+    const key = spec.result === 'matrix' ? callKey(spec.name, args) : undefined;
+    const result = memoised(ctx, key, args, () => {
       const r = invoke(spec, args);
       ctx.onCall?.(spec.name);
       return r;
     });
-    return fromResult(result);
+    return fromResult(result, !nested);
   }
 
   /** The method HyperFormula calls to evaluate `HC.<NAME>(…)`. */
@@ -167,6 +167,31 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     recordPrediction(ctx, node, where, size);
     return new ArraySize(size.cols, size.rows);
   }
+
+  /**
+   * The sizeOfResultArrayMethod of a scalar function: HyperFormula's default for a function without one
+   * (the largest size among arguments it lifts the function over), except that range arguments are not
+   * sized at all. By default HyperFormula sizes every argument and then ignores the ranges' sizes; sizing
+   * a nested spilled call such as HC.RESPONSE inside HC.RMS would evaluate it once more when the formula
+   * is read (or, while a workbook is built, mark the cell for a second reading by settleSpills).
+   */
+  sizeOfScalarCall(spec: FunctionSpec, node: CallNode, state: EvalState): ArraySize {
+    if (!state.arraysFlag) return ArraySize.scalar();
+    const { parameters, repeatLastArgs } = this.metadata(functionId(spec));
+    const params = parameters ?? [];
+    if (node.args.length > params.length && !repeatLastArgs) return ArraySize.error();
+    let width = 1;
+    let height = 1;
+    for (let i = 0; i < node.args.length; i++) {
+      const r = repeatLastArgs ?? 1;
+      const p = i < params.length ? params[i] : params[params.length - r + ((i - params.length) % r)];
+      if (p && UNSIZED.has(p.argumentType)) continue;
+      const size = this.arraySizeForAst(node.args[i] as never, state as never);
+      width = Math.max(width, size.width);
+      height = Math.max(height, size.height);
+    }
+    return new ArraySize(width, height);
+  }
 }
 
 /** Build a plugin class (and its identity translations) for a function table. */
@@ -186,11 +211,15 @@ export function buildPlugin(functions: readonly FunctionSpec[]): {
     proto[methodName(spec)] = function (this: HcFunctionPlugin, node: CallNode, state: EvalState) {
       return this.evaluateCall(spec, node, state);
     };
+    meta.sizeOfResultArrayMethod = sizeMethodName(spec);
     if (spec.result === 'matrix') {
-      meta.sizeOfResultArrayMethod = sizeMethodName(spec);
       meta.vectorizationForbidden = true;
       proto[sizeMethodName(spec)] = function (this: HcFunctionPlugin, node: CallNode, state: EvalState) {
         return this.sizeOfCall(spec, node, state);
+      };
+    } else {
+      proto[sizeMethodName(spec)] = function (this: HcFunctionPlugin, node: CallNode, state: EvalState) {
+        return this.sizeOfScalarCall(spec, node, state);
       };
     }
     implemented[id] = meta;

@@ -34,11 +34,21 @@ function scalarToPlain(v: unknown): PlainCell {
 }
 
 /**
+ * The plain rows behind each range value made by fromResult, so that a result passed straight into another
+ * call (=HC.RMS(HC.RESPONSE(…))) is not converted back cell by cell. The rows are the call's own result
+ * (also held by the memo), never handed to the engine, which may pad the copies it is given.
+ */
+const plainRows = new WeakMap<SimpleRangeValue, PlainCell[][]>();
+
+/**
  * One argument in plain form. A CellError argument, or an error anywhere inside a range, stops the call:
  * ErrorArgument is thrown so that the caller returns that error, as a spreadsheet propagates errors.
+ * Plain rows are shared with the memo and other calls: callers must not modify them.
  */
 export function toPlain(v: unknown): Plain {
   if (v instanceof SimpleRangeValue) {
+    const known = plainRows.get(v);
+    if (known) return known;
     const data = v.rawData();
     const out: PlainCell[][] = new Array(data.length);
     for (let r = 0; r < data.length; r++) {
@@ -54,14 +64,20 @@ export function toPlain(v: unknown): Plain {
 
 const ERROR_TYPE = { VALUE: ErrorType.VALUE, NUM: ErrorType.NUM, NA: ErrorType.NA } as const;
 
-/** A table call's result as a HyperFormula value: a scalar, a range (spilled) or a CellError with the message. */
-export function fromResult(result: CallResult): number | string | boolean | SimpleRangeValue | CellError {
+/**
+ * A table call's result as a HyperFormula value: a scalar, a range (spilled) or a CellError with the message.
+ * `copy` false is for a result that only another HC call reads (through toPlain); otherwise the rows are
+ * copied, because the engine keeps and may pad or splice the rows of a spill, and cached results must stay
+ * intact.
+ */
+export function fromResult(result: CallResult, copy = true): number | string | boolean | SimpleRangeValue | CellError {
   if (!result.ok) return new CellError(ERROR_TYPE[result.code], result.message);
   const v = result.value;
   if (!Array.isArray(v)) return v;
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');
-  // Copied: the engine may keep and pad the rows it is given, and cached results must stay intact.
-  return SimpleRangeValue.onlyValues(v.map((row) => row.slice()));
+  const range = SimpleRangeValue.onlyValues(copy ? v.map((row) => row.slice()) : v);
+  plainRows.set(range, v as PlainCell[][]);
+  return range;
 }
 
 /** Rows × columns of a value (1 × 1 for a scalar or an error). */

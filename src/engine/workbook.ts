@@ -4,7 +4,8 @@ import ExcelJS from 'exceljs';
 import { HyperFormula, RawCellContent, SerializedNamedExpression, Sheets } from 'hyperformula';
 import { a1, parseRange } from './cells';
 import { createEngine, EngineOptions } from './engine';
-import { normaliseFormula } from './formula-text';
+import { mapOutsideStrings, normaliseFormula } from './formula-text';
+import { readXlsxGuarded, XLSX_LIMITS, XlsxRefused } from './xlsx-guard';
 import { formulaResult, FormulaResult, isErrorValue, PlainValue } from './results';
 
 /**
@@ -24,6 +25,8 @@ export interface FormulaCell {
   formula: string;
   /** For an array (spilled) formula in the file: the range it covered when saved. */
   arrayRef?: string;
+  /** Set when the formula is not evaluated (it refers to another workbook): the cell shows #REF! with this. */
+  refused?: string;
 }
 
 export interface LoadedWorkbook {
@@ -52,17 +55,40 @@ function plainCell(value: ExcelJS.CellValue): RawCellContent {
   return null;
 }
 
+/**
+ * A reference to another workbook, as saved (`[1]Sheet1!A1`, `[1]!Name`) or as typed
+ * (`'[Book2.xlsx]Sheet 1'!A1`, `[Book2.xlsx]Sheet1!A1`); structured references (`Table1[Col]`) have no `!`.
+ */
+const EXTERNAL_REFERENCE = /'\[[^\]]+\][^']*'!|\[[^[\]"]+\][A-Za-z0-9_.]*!/;
+
+/** The first reference to another workbook in a formula (outside its string literals), if any. */
+export function externalReference(formula: string): string | undefined {
+  let found: string | undefined;
+  mapOutsideStrings(formula, (code) => {
+    const m = found === undefined ? EXTERNAL_REFERENCE.exec(code) : null;
+    if (m) {
+      const tail = /^[A-Za-z0-9_$:.]*/.exec(code.slice(m.index + m[0].length));
+      found = m[0] + (tail ? tail[0] : '');
+    }
+    return code;
+  });
+  return found;
+}
+
 export async function readWorkbook(file: string): Promise<LoadedWorkbook> {
   const workbook = new ExcelJS.Workbook();
-  await workbook.xlsx.readFile(file);
+  // Sizes, zip bombs and ranges the reader would expand cell by cell are checked first (xlsx-guard.ts).
+  await workbook.xlsx.load(readXlsxGuarded(file) as unknown as Parameters<typeof workbook.xlsx.load>[0]);
   const sheets: Sheets = {};
   const sheetNames: string[] = [];
   const formulas: FormulaCell[] = [];
   const warnings: string[] = [];
+  let usedArea = 0;
   workbook.worksheets.forEach((ws, sheetIndex) => {
     sheetNames.push(ws.name);
     const grid: RawCellContent[][] = [];
     const spills: { row: number; col: number; ref: string }[] = [];
+    usedArea += checkUsedArea(ws, usedArea);
     ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
       row.eachCell({ includeEmpty: false }, (cell, colNumber) => {
         if (cell.isMerged && cell.master !== cell) return;
@@ -75,8 +101,13 @@ export async function readWorkbook(file: string): Promise<LoadedWorkbook> {
           const v = cell.value as { shareType?: string; ref?: string };
           const arrayRef = v.shareType === 'array' && v.ref ? v.ref : undefined;
           const formula = normaliseFormula(stored);
-          formulas.push({ sheet: ws.name, sheetIndex, row: r, col: c, stored, formula, arrayRef });
-          grid[r][c] = formula;
+          const external = externalReference(formula);
+          const refused = external
+            ? `${ws.name}!${a1(r, c)} refers to another workbook (${external}); hc reads one workbook and does not follow external links.`
+            : undefined;
+          formulas.push({ sheet: ws.name, sheetIndex, row: r, col: c, stored, formula, arrayRef, refused });
+          if (refused) warnings.push(`${refused} The cell shows #REF!.`);
+          grid[r][c] = refused ? '=#REF!' : formula; // dependents see the error too
           if (arrayRef) spills.push({ row: r, col: c, ref: arrayRef });
         } else {
           grid[r][c] = plainCell(cell.value);
@@ -87,9 +118,12 @@ export async function readWorkbook(file: string): Promise<LoadedWorkbook> {
     for (const s of spills) {
       const area = parseRange(s.ref);
       if (!area) continue;
-      for (let r = area.top; r <= area.bottom; r++) {
-        for (let c = area.left; c <= area.right; c++) {
-          if ((r !== s.row || c !== s.col) && grid[r]) grid[r][c] = null;
+      // Only cells that hold something: a saved ref may claim the whole sheet.
+      for (let r = area.top; r <= Math.min(area.bottom, grid.length - 1); r++) {
+        const row = grid[r];
+        if (!row) continue;
+        for (let c = area.left; c <= Math.min(area.right, row.length - 1); c++) {
+          if (r !== s.row || c !== s.col) row[c] = null;
         }
       }
     }
@@ -106,6 +140,30 @@ export async function readWorkbook(file: string): Promise<LoadedWorkbook> {
     namedExpressions.push({ name: dn.name, expression: `=${dn.ranges[0]}` });
   }
   return { file, workbook, sheetNames, sheets, namedExpressions, formulas, warnings };
+}
+
+/**
+ * The used ranges of the sheets (A1 to each sheet's last row and column with a value) must stay within
+ * XLSX_LIMITS.sheetArea together: the engine lays a sheet out to that rectangle, and one stray value at
+ * XFD1048576 would make it 17 billion cells. A sheet's `<dimension>` claim is not used. Returns the area.
+ */
+function checkUsedArea(ws: ExcelJS.Worksheet, before: number): number {
+  let rows = 0;
+  let cols = 0;
+  ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
+    row.eachCell({ includeEmpty: false }, (_cell, colNumber) => {
+      if (colNumber > cols) cols = colNumber;
+      if (rowNumber > rows) rows = rowNumber;
+    });
+  });
+  if (before + rows * cols > XLSX_LIMITS.sheetArea) {
+    throw new XlsxRefused(
+      `sheet ${JSON.stringify(ws.name)} uses A1:${a1(rows - 1, cols - 1)} (${(rows * cols).toLocaleString('en-US')} cells from A1 to its last ` +
+        `row and column with a value); hc reads workbooks whose sheets use at most ${XLSX_LIMITS.sheetArea.toLocaleString('en-US')} ` +
+        'cells in all. Delete stray values far from the data.',
+    );
+  }
+  return rows * cols;
 }
 
 export interface Recalculated {
@@ -126,6 +184,7 @@ export function recalculate(book: LoadedWorkbook, options: EngineOptions = {}): 
   }
   const results = book.formulas.map((f) => {
     const sheet = hf.getSheetId(f.sheet) ?? f.sheetIndex;
+    if (f.refused) return { sheet: f.sheet, address: a1(f.row, f.col), row: f.row, col: f.col, formula: f.formula, value: { error: '#REF!', message: f.refused } };
     return formulaResult(hf, f.sheet, { sheet, row: f.row, col: f.col }, f.formula);
   });
   return { hf, results };
@@ -153,8 +212,11 @@ export async function writeRecalculated(book: LoadedWorkbook, results: FormulaRe
     // Clear the cached values of the spill as saved; the new spill is written below.
     const old = f.arrayRef ? parseRange(f.arrayRef) : undefined;
     if (old) {
-      for (let row = old.top; row <= old.bottom; row++) {
-        for (let col = old.left; col <= old.right; col++) {
+      // Within the cells the sheet has (a saved ref may claim the whole sheet).
+      const grid = book.sheets[f.sheet] ?? [];
+      for (let row = old.top; row <= Math.min(old.bottom, grid.length - 1); row++) {
+        const cells = grid[row]?.length ?? 0;
+        for (let col = old.left; col <= Math.min(old.right, cells - 1); col++) {
           if (row !== f.row || col !== f.col) ws.getCell(row + 1, col + 1).value = null;
         }
       }

@@ -2,8 +2,10 @@ import { numError, valueError } from '../core/errors';
 import { findElement, LadderTable, parseLadder, valuesFromGrid } from '../core/ladder';
 import { ComplexArrays, impedance, transfer } from '../core/network';
 import { response } from '../core/response';
-import { spectrumFromTable, spectrumToTable } from '../core/spectrum';
-import { asChoice, asGrid, asNumber, asScalar, asVector, isBlank } from './coerce';
+import { LIMITS, networkWorkMessage } from '../core/limits';
+import { checkLadderRange, harmonicSpan, positiveSpan } from '../core/ladder-range';
+import { order, spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { asChoice, asGrid, asNumber, asNumbers, asScalar, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
 
 /** Shared argument readers for every function that takes a ladder. */
@@ -25,8 +27,14 @@ type Form = 'polar' | 'rect' | 'complex' | 'db';
 const FORMS: Record<string, Form> = { polar: 'polar', rect: 'rect', rectangular: 'rect', complex: 'complex', db: 'db' };
 
 function frequencies(v: unknown): Float64Array {
-  const list = Array.isArray(v) ? asVector(v, 'frequency') : [asNumber(v, 'frequency')];
-  return Float64Array.from(list as number[]);
+  if (!Array.isArray(v)) return Float64Array.of(asNumber(v, 'frequency'));
+  return asNumbers(v, 'frequency', { blanks: 'trailing', max: LIMITS.sweep, maxWhat: 'frequencies' });
+}
+
+/** LIMITS.networkWork: ladder rows × frequencies (or harmonics + 1) solved in one call. */
+export function checkNetworkWork(table: LadderTable, points: number, what: string): void {
+  const message = networkWorkMessage(table.rows, points, what);
+  if (message) throw numError(message);
 }
 
 /** Text a+bj that spreadsheet complex-number functions read (upper-case exponent, j suffix). */
@@ -70,7 +78,10 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
       const table = ladderArg(ladder);
       const freqs = frequencies(f);
       const fm = asChoice(form, 'form', { polar: 'polar', rect: 'rect', rectangular: 'rect', complex: 'complex' }, 'polar' as Form);
-      return formatted(impedance(table, freqs, valuesArg(values, table)), freqs, fm);
+      checkNetworkWork(table, freqs.length, 'frequencies');
+      const vals = valuesArg(values, table);
+      checkLadderRange(table, ...positiveSpan(freqs), { values: vals });
+      return formatted(impedance(table, freqs, vals), freqs, fm);
     },
   },
   {
@@ -88,7 +99,10 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
       const table = ladderArg(ladder);
       const freqs = frequencies(f);
       const fm = asChoice(form, 'form', FORMS, 'polar' as Form);
-      return formatted(transfer(table, freqs, valuesArg(values, table)), freqs, fm);
+      checkNetworkWork(table, freqs.length, 'frequencies');
+      const vals = valuesArg(values, table);
+      checkLadderRange(table, ...positiveSpan(freqs), { values: vals });
+      return formatted(transfer(table, freqs, vals), freqs, fm);
     },
   },
   {
@@ -108,14 +122,13 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
     impl: (spec, ladder, quantity, element, values, source) => {
       const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
       const table = ladderArg(ladder);
-      return spectrumToTable(
-        response(s, table, {
-          quantity: quantityArg(quantity),
-          element: elementArg(element, table),
-          values: valuesArg(values, table),
-          source: sourceArg(source),
-        }),
-      );
+      checkNetworkWork(table, order(s) + 1, 'harmonics (n = 0…N)');
+      const q = quantityArg(quantity);
+      const el = elementArg(element, table);
+      const vals = valuesArg(values, table);
+      const src = sourceArg(source);
+      checkLadderRange(table, ...harmonicSpan(s), { values: vals });
+      return spectrumToTable(response(s, table, { quantity: q, element: el, values: vals, source: src }));
     },
   },
 ];

@@ -4,6 +4,7 @@ import { spectrumFromTable } from '../core/spectrum';
 import { stress } from '../core/stress';
 import { MEASURES, parseMeasure, spread } from '../core/tolerance';
 import { LIMITS } from '../core/limits';
+import { checkLadderRange, harmonicSpan } from '../core/ladder-range';
 import { asGrid, asInteger, asScalar, isBlank } from './coerce';
 import { elementArg, LADDER_HELP, ladderArg, quantityArg, SOURCE_HELP, sourceArg, VALUES_HELP, valuesArg } from './network-args';
 import { FunctionSpec } from './spec';
@@ -40,7 +41,10 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
     impl: (spec, ladder, values, source) => {
       const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
       const table = ladderArg(ladder);
-      const r = stress(s, table, { values: valuesArg(values, table), source: sourceArg(source) });
+      const vals = valuesArg(values, table);
+      const src = sourceArg(source);
+      checkLadderRange(table, ...harmonicSpan(s), { values: vals });
+      const r = stress(s, table, { values: vals, source: src });
       const rows: (number | string)[][] = new Array(table.rows);
       for (let i = 0; i < table.rows; i++) {
         rows[i] = [stressLabel(table, i), r.iRms[i], r.iPeak[i], r.vRms[i], r.vPeak[i], r.power[i]];
@@ -73,13 +77,16 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
     impl: (spec, ladder, measure, quantity, element, trials, values, source) => {
       const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
       const table = ladderArg(ladder);
-      const r = spread(s, table, measureArg(measure), {
+      const opts = {
         quantity: quantityArg(quantity),
         element: elementArg(element, table),
         trials: isBlank(asScalar(trials, 'trials')) ? undefined : asInteger(trials, 'trials'),
         values: valuesArg(values, table),
         source: sourceArg(source),
-      });
+      };
+      const m = measureArg(measure);
+      checkLadderRange(table, ...harmonicSpan(s), { values: opts.values, tolerance: true });
+      const r = spread(s, table, m, opts);
       return [[r.min, r.nominal, r.max]];
     },
   },

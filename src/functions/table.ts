@@ -1,17 +1,47 @@
 import { numError, valueError } from '../core/errors';
-import { LIMITS } from '../core/limits';
-import { Spectrum, spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { grouped, LIMITS } from '../core/limits';
+import { order, Spectrum, spectrumFromTable, spectrumToTable } from '../core/spectrum';
 import { combine, pulse, pwl, ramp, rectified, sampled, sine } from '../core/waveforms';
 import { crest, mean, power, rms, thd, trace, valueAt } from '../core/measures';
-import { peak, pp, valley } from '../core/extremes';
+import { peak, pp, valley } from '../core/extremes-scaled';
 import { formatEng, parseValue } from '../core/units';
 import { preferred } from '../core/preferred';
-import { asBool, asChoice, asGrid, asScalar, asInteger, asNumber, asText, asVector, isBlank } from './coerce';
+import { asBool, asChoice, asGrid, asScalar, asInteger, asNumber, asNumbers, asText, asVector, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
 import * as net from './network-args';
 import { PARTS_FUNCTIONS } from './parts-args';
 
 const spectrumArg = (v: unknown, name = 'spectrum'): Spectrum => spectrumFromTable(asGrid(v, name), name);
+
+/**
+ * HC.PWL's times and values, paired by position: a blank in both at the same place is skipped (a gap in the
+ * table), a blank in one only is an error (the pairs after it would shift), blanks after the last pair are
+ * dropped.
+ */
+function pwlPoints(t: unknown, v: unknown): { times: number[]; values: number[] } {
+  const opts = { blanks: 'keep' as const, max: 2 * LIMITS.pwlPoints, maxWhat: 'entries' };
+  const ts = asVector(t, 'times', opts);
+  const vs = asVector(v, 'values', opts);
+  const times: number[] = [];
+  const values: number[] = [];
+  const count = Math.max(ts.length, vs.length);
+  for (let k = 0; k < count; k++) {
+    const a = k < ts.length ? ts[k] : null;
+    const b = k < vs.length ? vs[k] : null;
+    if (a === null && b === null) continue;
+    if (a === null || b === null) {
+      throw valueError(
+        `times and values are paired by position: entry ${k + 1} of ${a === null ? 'times' : 'values'} is blank (or missing) ` +
+          `but the other is ${a === null ? b : a}; give both or leave both blank.`,
+      );
+    }
+    times.push(a);
+    values.push(b);
+    if (times.length > LIMITS.pwlPoints) throw numError(`PWL takes at most ${LIMITS.pwlPoints} points.`);
+  }
+  if (times.length === 0) throw valueError('times and values hold no points.');
+  return { times, values };
+}
 const table = (s: Spectrum): number[][] => spectrumToTable(s);
 
 const HARMONICS_HELP = `Highest harmonic order N (0…${LIMITS.harmonics}); the result spills N+1 rows n = 0…N.`;
@@ -89,13 +119,8 @@ export const FUNCTIONS: FunctionSpec[] = [
     result: 'matrix',
     example: '=HC.PWL({0;1E-6;4E-6;5E-6}, {0;2;2;0}, 30, 1E-5)',
     impl: (t, v, n, period) => {
-      const times = asVector(t, 'times') as number[];
-      const vals = asVector(v, 'values') as number[];
-      if (times.length !== vals.length) {
-        throw valueError(`times and values must hold the same count of numbers; got ${times.length} and ${vals.length}.`);
-      }
-      if (times.length > LIMITS.pwlPoints) throw numError(`PWL takes at most ${LIMITS.pwlPoints} points, got ${times.length}.`);
-      return table(pwl(times, vals, asInteger(n, 'harmonics'), isBlank(period) ? undefined : asNumber(period, 'period')));
+      const { times, values } = pwlPoints(t, v);
+      return table(pwl(times, values, asInteger(n, 'harmonics'), isBlank(period) ? undefined : asNumber(period, 'period')));
     },
   },
   {
@@ -109,9 +134,8 @@ export const FUNCTIONS: FunctionSpec[] = [
     result: 'matrix',
     example: '=HC.SAMPLED(B2:B129, 12800, 20)',
     impl: (v, rate, n) => {
-      const vals = asVector(v, 'values') as number[];
-      if (vals.length > LIMITS.samples) throw numError(`values holds ${vals.length} samples; at most ${LIMITS.samples} are allowed.`);
-      return table(sampled(Float64Array.from(vals), asNumber(rate, 'sample_rate'), asInteger(n, 'harmonics')));
+      const vals = asNumbers(v, 'values', { blanks: 'trailing', max: LIMITS.samples, maxWhat: 'samples' });
+      return table(sampled(vals, asNumber(rate, 'sample_rate'), asInteger(n, 'harmonics')));
     },
   },
   {
@@ -137,8 +161,20 @@ export const FUNCTIONS: FunctionSpec[] = [
     impl: (...specs) => {
       const given = specs.filter((s) => !isBlank(s));
       if (given.length === 0) throw valueError('COMBINE needs at least one spectrum.');
-      if (given.length > LIMITS.combine) throw numError(`COMBINE takes at most ${LIMITS.combine} spectra.`);
-      return table(combine(given.map((s, k) => spectrumArg(s, `spectrum${k + 1}`))));
+      if (given.length > LIMITS.combine) throw numError(`COMBINE takes at most ${LIMITS.combine} spectra, got ${given.length}.`);
+      let rows = 0;
+      const spectra = given.map((s, k) => {
+        const sp = spectrumArg(s, `spectrum${k + 1}`);
+        rows += order(sp) + 1;
+        if (rows > LIMITS.combineRows) {
+          throw numError(
+            `COMBINE's spectra hold more than ${grouped(LIMITS.combineRows)} harmonic rows in all (at spectrum${k + 1}); ` +
+              'combine fewer or shorter spectra.',
+          );
+        }
+        return sp;
+      });
+      return table(combine(spectra));
     },
   },
   // ---- network --------------------------------------------------------------------------------------------

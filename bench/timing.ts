@@ -1,0 +1,81 @@
+/**
+ * Paired timing: both sides run in the same process, warmed up, then interleaved (the order alternates each
+ * repetition) so that drift in clock speed or garbage collection affects both alike. Each side's figure is the
+ * median over repetitions of the time per call.
+ */
+import { performance } from 'perf_hooks';
+
+export interface PairOptions {
+  /** Repetitions per side after warm-up (each is one sample). */
+  reps?: number;
+  /** Calls per sample, so that a sample lasts long enough to time (default: calibrated to ~sampleMs). */
+  inner?: number;
+  /** Target duration of one sample when `inner` is calibrated. */
+  sampleMs?: number;
+  /** Warm-up calls per side (default: one sample's worth). */
+  warmup?: number;
+}
+
+export interface PairResult {
+  oursMs: number;
+  baselineMs: number;
+  ratio: number;
+}
+
+export function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
+}
+
+/** Calls per sample so that one sample takes about `sampleMs` (at least 1). */
+function calibrate(fn: () => unknown, sampleMs: number): number {
+  let n = 1;
+  for (;;) {
+    const t0 = performance.now();
+    for (let i = 0; i < n; i++) fn();
+    const dt = performance.now() - t0;
+    if (dt >= sampleMs / 4 || n >= 1 << 20) return Math.max(1, Math.round((n * sampleMs) / Math.max(dt, 1e-3)));
+    n *= 4;
+  }
+}
+
+function sample(fn: () => unknown, inner: number): number {
+  const t0 = performance.now();
+  for (let i = 0; i < inner; i++) fn();
+  return (performance.now() - t0) / inner;
+}
+
+/** Median ms per call of `ours` and `baseline`, interleaved; ratio = baseline / ours (higher is better). */
+export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOptions = {}): PairResult {
+  const reps = opts.reps ?? 15;
+  const sampleMs = opts.sampleMs ?? 60;
+  const innerO = opts.inner ?? calibrate(ours, sampleMs);
+  const innerB = opts.inner ?? calibrate(baseline, sampleMs);
+  const warm = opts.warmup ?? 1;
+  for (let w = 0; w < warm; w++) {
+    sample(ours, innerO);
+    sample(baseline, innerB);
+  }
+  const o: number[] = [];
+  const b: number[] = [];
+  for (let r = 0; r < reps; r++) {
+    if (r % 2 === 0) {
+      o.push(sample(ours, innerO));
+      b.push(sample(baseline, innerB));
+    } else {
+      b.push(sample(baseline, innerB));
+      o.push(sample(ours, innerO));
+    }
+  }
+  const oursMs = median(o);
+  const baselineMs = median(b);
+  return { oursMs, baselineMs, ratio: baselineMs / oursMs };
+}
+
+const fmt = (x: number): string => (x >= 100 ? x.toFixed(1) : x >= 1 ? x.toFixed(3) : x.toPrecision(3));
+
+/** The one machine-readable line per workload. */
+export function benchLine(name: string, r: PairResult): string {
+  return `BENCH ${name} ours_ms=${fmt(r.oursMs)} baseline_ms=${fmt(r.baselineMs)} ratio=${r.ratio.toFixed(2)}`;
+}

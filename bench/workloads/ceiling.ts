@@ -1,0 +1,78 @@
+/**
+ * `ceiling`: how close the ladder kernel comes to what this machine does in plain JavaScript. Ours: the
+ * batched ladder pass (LadderSolver.portsBatch, behind RESPONSE, TRANSFER and IMPEDANCE) over 2,000
+ * frequencies of the 6-element demo ladder. Baseline: a plain loop y += a·b of complex multiply-adds over
+ * Float64Arrays held in cache, doing the same count of complex multiply-adds.
+ * Work is counted in complex multiply-adds (CMA = 8 flops: 4 multiplications, 4 additions): the kernel's
+ * floating-point operations (+, −, ×, ÷ each one flop; comparisons and |x| not counted) divided by 8.
+ * ratio = baseline time / ours = the kernel's CMA rate / the plain loop's CMA rate.
+ */
+import { ACROSS, LadderTable, L, C, PLUS, SHUNT } from '../../src/core/ladder';
+import { LadderSolver, makePortBatch } from '../../src/core/network';
+import { consume, LADDER } from '../fixtures';
+import { benchLine, pair } from '../timing';
+
+const FREQS = 2000;
+
+/**
+ * Flops per frequency of portsBatch with a voltage source (its fast pass; see network.ts):
+ * element impedance L 1 (ω·v), C 2 (ω·v, 1/x), R 0; a `+` fold or a series load is a snapped complex sum,
+ * 7 (3 additions for the scale, 2 for the sum, 2 multiplications for the thresholds); a `||` fold or a shunt
+ * load is a parallel combination, 24 (sum 7, reciprocal 5, two complex products 12); forward: reciprocal of
+ * the input impedance 5, each series branch one complex product 6, each shunt branch before the last a
+ * reciprocal and a product 11.
+ */
+export function kernelFlops(t: LadderTable): number {
+  let flops = 0;
+  for (let i = 0; i < t.rows; i++) {
+    flops += t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0;
+    if (t.role[i] === PLUS) flops += 7;
+    if (t.role[i] === ACROSS) flops += 24;
+  }
+  let last = -1;
+  for (let b = 0; b < t.branches; b++) if (t.role[t.branchStart[b]] === SHUNT) last = b;
+  for (let b = last - 1; b >= 0; b--) flops += t.role[t.branchStart[b]] === SHUNT ? 24 : 7;
+  flops += 5;
+  for (let b = 0; b < last; b++) flops += t.role[t.branchStart[b]] === SHUNT ? 11 : 6;
+  return flops;
+}
+
+export function runCeiling(log: (s: string) => void): void {
+  const solver = new LadderSolver(LADDER);
+  const w = new Float64Array(FREQS);
+  for (let k = 0; k < FREQS; k++) w[k] = 2 * Math.PI * 250e3 * (k + 1);
+  const batch = makePortBatch(FREQS);
+  const flops = kernelFlops(LADDER);
+  const cmas = (flops / 8) * FREQS;
+  // the plain loop: `cmas` complex multiply-adds over arrays of FREQS elements (in cache, like the kernel's)
+  const ar = new Float64Array(FREQS).map((_, i) => 0.5 + 1e-4 * i);
+  const ai = new Float64Array(FREQS).map((_, i) => 0.25 - 1e-4 * i);
+  const br = new Float64Array(FREQS).fill(0.999);
+  const bi = new Float64Array(FREQS).fill(-0.001);
+  const yr = new Float64Array(FREQS);
+  const yi = new Float64Array(FREQS);
+  const passes = Math.max(1, Math.round(cmas / FREQS));
+  const plain = (): void => {
+    for (let p = 0; p < passes; p++) {
+      for (let i = 0; i < FREQS; i++) {
+        const xr = ar[i], xi = ai[i], zr = br[i], zi = bi[i];
+        yr[i] += xr * zr - xi * zi;
+        yi[i] += xr * zi + xi * zr;
+      }
+    }
+    consume(yr[7]);
+  };
+  solver.portsBatch(w, FREQS, 'voltage', batch);
+  const fast = batch.ok.reduce((a, b) => a + b, 0);
+  const r = pair(() => {
+    solver.portsBatch(w, FREQS, 'voltage', batch);
+    consume(batch.fRe[5]);
+  }, plain, { reps: 21 });
+  // the plain loop did passes·FREQS CMAs; scale it to exactly the kernel's count
+  const baselineMs = (r.baselineMs * cmas) / (passes * FREQS);
+  const scaled = { oursMs: r.oursMs, baselineMs, ratio: baselineMs / r.oursMs };
+  const rate = (ms: number): string => ((cmas / (ms / 1e3)) / 1e9).toFixed(2);
+  log(`INFO ceiling ladder rows=${LADDER.rows} freqs=${FREQS} (fast pass at ${fast}) flops_per_freq=${flops} CMA_per_freq=${(flops / 8).toFixed(2)}`);
+  log(`INFO ceiling GCMA/s kernel=${rate(scaled.oursMs)} plain_loop=${rate(scaled.baselineMs)}`);
+  log(benchLine('ceiling', scaled));
+}
