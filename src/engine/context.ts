@@ -22,10 +22,21 @@ export interface EngineContext {
   /** Size fixed for each (call node, cell) when the formula was read, and why it is provisional if so. */
   predicted: WeakMap<object, Map<string, PredictedSize>>;
   /**
-   * Results of recent table calls keyed by function and a hash of the arguments (memo-key.ts), so the size
-   * method's work is reused; each entry keeps its arguments to confirm a hit.
+   * Results of table calls computed by a size method, keyed by function and a hash of the arguments
+   * (memo-key.ts), so that the evaluation which follows (and any identical call) reuses them; each entry keeps
+   * its arguments to confirm a hit. Calls made by evaluation alone are not stored: in a recalculation nothing
+   * asks for them again, and holding hundreds of recent tables made the garbage collector copy them over and
+   * over (a third of a 10,000-row recalculation).
    */
   memo: Map<string, MemoEntry>;
+  /** Memo entries per function name, so that a call whose function has none skips hashing its arguments. */
+  memoCount: Map<string, number>;
+  /**
+   * Above 0 while computing results that will be asked for again soon, which the memo then stores: a size
+   * method (its evaluation follows), or the evaluation of a provisionally sized formula (settleSpills sizes it
+   * again). Nested calls computed meanwhile are stored too.
+   */
+  remember: number;
   /** HC calls being evaluated, outermost first: above 1, the call is an argument of another HC call. */
   depth: number;
   /** Called after each table call that was computed (not served from memo); drives the CLI's progress bar. */
@@ -40,6 +51,7 @@ export interface PredictedSize {
 }
 
 export interface MemoEntry {
+  name: string;
   args: readonly Plain[];
   result: CallResult;
 }
@@ -48,7 +60,9 @@ export const CONTEXT_KIND = 'harmonic-cells-engine-context';
 export const MEMO_ENTRIES = 128;
 
 export function newContext(): EngineContext {
-  return { kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map(), depth: 0 };
+  return {
+    kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map(), memoCount: new Map(), remember: 0, depth: 0,
+  };
 }
 
 export function isEngineContext(v: unknown): v is EngineContext {
@@ -68,7 +82,10 @@ export function recordPrediction(ctx: EngineContext, node: object, where: string
   perCell.set(where, p);
 }
 
-/** A memoised table call: most recent last, oldest dropped beyond MEMO_ENTRIES; a hash collision recomputes. */
+/**
+ * A memoised table call: most recent last, oldest dropped beyond MEMO_ENTRIES; a hash collision recomputes.
+ * A computed result is stored only while `remember` is set (see EngineContext.memo).
+ */
 export function memoised(
   ctx: EngineContext,
   key: string | undefined,
@@ -83,8 +100,21 @@ export function memoised(
     return hit.result;
   }
   const result = compute();
-  ctx.memo.delete(key);
-  ctx.memo.set(key, { args, result });
-  if (ctx.memo.size > MEMO_ENTRIES) ctx.memo.delete(ctx.memo.keys().next().value as string);
+  if (ctx.remember === 0) return result;
+  const name = key.slice(0, key.indexOf('\u0000'));
+  if (hit) forget(ctx, key, hit);
+  ctx.memo.set(key, { name, args, result });
+  ctx.memoCount.set(name, (ctx.memoCount.get(name) ?? 0) + 1);
+  if (ctx.memo.size > MEMO_ENTRIES) {
+    const oldest = ctx.memo.keys().next().value as string;
+    forget(ctx, oldest, ctx.memo.get(oldest) as MemoEntry);
+  }
   return result;
+}
+
+function forget(ctx: EngineContext, key: string, entry: MemoEntry): void {
+  ctx.memo.delete(key);
+  const left = (ctx.memoCount.get(entry.name) ?? 1) - 1;
+  if (left > 0) ctx.memoCount.set(entry.name, left);
+  else ctx.memoCount.delete(entry.name);
 }

@@ -115,7 +115,8 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
       throw e;
     }
     const ctx = this.hc;
-    const key = spec.result === 'matrix' ? callKey(spec.name, args) : undefined;
+    // Keyed only when the memo could answer or will store (see EngineContext.memo): hashing costs microseconds.
+    const key = spec.result === 'matrix' && (ctx.remember > 0 || ctx.memoCount.has(spec.name)) ? callKey(spec.name, args) : undefined;
     const result = memoised(ctx, key, args, () => {
       const r = invoke(spec, args);
       ctx.onCall?.(spec.name);
@@ -126,11 +127,19 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
 
   /** The method HyperFormula calls to evaluate `HC.<NAME>(…)`. */
   evaluateCall(spec: FunctionSpec, node: CallNode, state: EvalState): unknown {
-    const value = this.compute(spec, node, state);
-    if (spec.result !== 'matrix' || value instanceof CellError) return value;
+    if (spec.result !== 'matrix') return this.compute(spec, node, state);
+    const ctx = this.hc;
     const where = addressKey(state.formulaAddress);
-    const predicted = this.hc.predicted.get(node)?.get(where);
-    if (!predicted) return value;
+    const predicted = ctx.predicted.get(node)?.get(where);
+    // A provisionally sized formula is sized again by settleSpills: keep this result for that.
+    if (predicted?.provisional) ctx.remember++;
+    let value: unknown;
+    try {
+      value = this.compute(spec, node, state);
+    } finally {
+      if (predicted?.provisional) ctx.remember--;
+    }
+    if (value instanceof CellError || !predicted) return value;
     const got = sizeOf(value);
     if (got.rows === predicted.rows && got.cols === predicted.cols) return value;
     // The engine would silently cut or pad the result to the size it fixed when reading the formula.
@@ -158,10 +167,13 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
       return provisional('it reads cells that were not computed yet while the workbook was being built');
     }
     let value: unknown;
+    ctx.remember++;
     try {
       value = this.compute(spec, node, state);
     } catch {
       return provisional('it reads cells that were not computed yet');
+    } finally {
+      ctx.remember--;
     }
     const size = value instanceof SimpleRangeValue ? sizeOf(value) : { rows: 1, cols: 1 };
     recordPrediction(ctx, node, where, size);

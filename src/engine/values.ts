@@ -49,17 +49,32 @@ export function toPlain(v: unknown): Plain {
   if (v instanceof SimpleRangeValue) {
     const known = plainRows.get(v);
     if (known) return known;
-    const data = v.rawData();
-    const out: PlainCell[][] = new Array(data.length);
+    // The range's own rows (made for this value) are passed on where every cell is already a number, text or
+    // boolean; only rows with blanks or wrapped numbers are converted. Saves a copy of every large table.
+    const data = v.rawData() as unknown[][];
+    let out: PlainCell[][] | undefined;
     for (let r = 0; r < data.length; r++) {
       const row = data[r];
+      if (isPlainRow(row)) {
+        if (out) out[r] = row as PlainCell[];
+        continue;
+      }
+      out ??= data.slice(0, r) as PlainCell[][];
       const plainRow: PlainCell[] = new Array(row.length);
       for (let c = 0; c < row.length; c++) plainRow[c] = scalarToPlain(row[c]);
       out[r] = plainRow;
     }
-    return out;
+    return out ?? (data as PlainCell[][]);
   }
   return scalarToPlain(v);
+}
+
+function isPlainRow(row: unknown[]): boolean {
+  for (let c = 0; c < row.length; c++) {
+    const t = typeof row[c];
+    if (t !== 'number' && t !== 'string' && t !== 'boolean') return false;
+  }
+  return true;
 }
 
 const ERROR_TYPE = { VALUE: ErrorType.VALUE, NUM: ErrorType.NUM, NA: ErrorType.NA } as const;
