@@ -512,8 +512,7 @@ export function realSpectrum(samples: Float64Array, harmonics: number, f0: numbe
   }
   // One finite sum proves every sample finite and keeps the transform free of overflow. For an even count it
   // is taken while the samples are packed for the half-length transform (one pass over them instead of two).
-  const even = M % 2 === 0;
-  const plan = even ? realPlan(M) : undefined;
+  const plan = M % 2 === 0 ? realPlan(M) : undefined;
   let sum = 0;
   if (plan) {
     const { zr, zi } = plan;

@@ -84,14 +84,38 @@ export function response(spec: Spectrum, table: LadderTable, opts: ResponseOptio
     throw naError(`element ${element + 1} is not in the ladder; use rows 1 to ${table.rows}.`);
   }
   const solver = new LadderSolver(table, opts.values);
-  let sol: Solution | undefined; // only for harmonics the batched pass leaves to solve()
+  const out = makeSpectrum(spec.f0, order(spec));
+  const failed = responseInto(spec, solver, quantity, element, source, out);
+  if (failed >= 0) {
+    throw unbounded(table, solver, source, failed, spec.f0, element >= 0 ? { row: element, q: quantity } : quantity === 'V' ? 'far' : 'source');
+  }
+  return out;
+}
+
+/**
+ * The response loop behind response() and each case of a tolerance spread: writes every harmonic of `out`
+ * (same f0 and N as `spec`) for the solver's present values. Returns −1, or the first harmonic where the
+ * quantity is unbounded (the caller words the error). Arguments are trusted: response() validates them.
+ */
+export function responseInto(
+  spec: Spectrum,
+  solver: LadderSolver,
+  quantity: Quantity,
+  element: number,
+  source: SourceKind,
+  out: Spectrum,
+  sol?: Solution,
+): number {
   const N = order(spec);
-  const out = makeSpectrum(spec.f0, N);
   // Port quantities (far end, source) for all harmonics n ≥ 1 in one batched pass; the rest one at a time.
   const batch = element < 0 ? harmonicBatch(solver, spec, source) : undefined;
   for (let n = 0; n <= N; n++) {
     const cr = spec.re[n], ci = n === 0 ? 0 : spec.im[n];
-    if (cr === 0 && ci === 0) continue;
+    if (cr === 0 && ci === 0) {
+      out.re[n] = 0;
+      out.im[n] = 0;
+      continue;
+    }
     let qr: number, qi: number, ok: boolean;
     if (batch && n >= 1 && batch.ok[n - 1]) {
       if (quantity === 'V') {
@@ -108,7 +132,7 @@ export function response(spec: Spectrum, table: LadderTable, opts: ResponseOptio
       out.im[n] = cr * qi + ci * qr;
       continue;
     }
-    sol ??= makeSolution(table);
+    sol ??= makeSolution(solver.table); // only for harmonics the batched pass leaves to solve()
     solver.solve(n * spec.f0, source, sol, element >= 0);
     if (element >= 0) {
       const bad = sol.bad[element] & (quantity === 'V' ? V_UNBOUNDED : I_UNBOUNDED);
@@ -129,13 +153,11 @@ export function response(spec: Spectrum, table: LadderTable, opts: ResponseOptio
       qr = 1;
       qi = 0;
     }
-    if (!ok) {
-      throw unbounded(table, solver, source, n, spec.f0, element >= 0 ? { row: element, q: quantity } : quantity === 'V' ? 'far' : 'source');
-    }
+    if (!ok) return n;
     out.re[n] = cr * qr - ci * qi;
     out.im[n] = n === 0 ? 0 : cr * qi + ci * qr;
   }
-  return out;
+  return -1;
 }
 
 /** portsBatch at the harmonics n = 1…N of a spectrum (slot n − 1), frequencies formed as solve(n·f0) forms them. */

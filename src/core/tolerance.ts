@@ -3,8 +3,8 @@ import { peak, pp, valley } from './extremes-scaled';
 import { describeElement, LadderTable, withValues } from './ladder';
 import { grouped, LIMITS, SPREAD_MEASURE_WEIGHT } from './limits';
 import { crest, mean, rms, thd } from './measures';
-import { I_UNBOUNDED, LadderSolver, makeSolution, Solution, SourceKind, V_UNBOUNDED } from './network';
-import { Quantity, response } from './response';
+import { LadderSolver, makeSolution, Solution, SourceKind } from './network';
+import { Quantity, response, responseInto } from './response';
 import { makeSpectrum, order, Spectrum } from './spectrum';
 
 /**
@@ -185,42 +185,10 @@ class CaseResponse {
     this.out = makeSpectrum(spec.f0, order(spec));
   }
 
-  /** Mirrors response(); false where the quantity is unbounded (the caller asks response() for the message). */
+  /** The response for the present values; false where it is unbounded (the caller asks response() for the message). */
   run(): boolean {
-    const { spec, solver, sol, out, element, quantity, source } = this;
-    solver.setValues(this.work);
-    const N = order(spec);
-    for (let n = 0; n <= N; n++) {
-      const cr = spec.re[n], ci = n === 0 ? 0 : spec.im[n];
-      if (cr === 0 && ci === 0) {
-        out.re[n] = 0;
-        out.im[n] = 0;
-        continue;
-      }
-      solver.solve(n * spec.f0, source, sol, element >= 0);
-      let qr: number, qi: number, ok: boolean;
-      if (element >= 0) {
-        ok = (sol.bad[element] & (quantity === 'V' ? V_UNBOUNDED : I_UNBOUNDED)) === 0;
-        qr = quantity === 'V' ? sol.vRe[element] : sol.iRe[element];
-        qi = quantity === 'V' ? sol.vIm[element] : sol.iIm[element];
-      } else if (quantity === 'V') {
-        ok = !sol.portBad[1];
-        qr = sol.port[2];
-        qi = sol.port[3];
-      } else if (source === 'voltage') {
-        ok = !sol.portBad[0];
-        qr = sol.port[0];
-        qi = sol.port[1];
-      } else {
-        ok = solver.lastShunt >= 0;
-        qr = 1;
-        qi = 0;
-      }
-      if (!ok) return false;
-      out.re[n] = cr * qr - ci * qi;
-      out.im[n] = n === 0 ? 0 : cr * qi + ci * qr;
-    }
-    return true;
+    this.solver.setValues(this.work);
+    return responseInto(this.spec, this.solver, this.quantity, this.element, this.source, this.out, this.sol) < 0;
   }
 
   /** The descriptive error response() gives for the present values, prefixed with where in the spread it happened. */
