@@ -37,6 +37,10 @@ export interface EngineContext {
    * again). Nested calls computed meanwhile are stored too.
    */
   remember: number;
+  /** Above 0 while a size method evaluates a call (at parse time): the range cache is not used then. */
+  sizing: number;
+  /** Range arguments served from the range cache (values.ts RangeCache); for tests. */
+  rangeCacheHits: number;
   /** HC calls being evaluated, outermost first: above 1, the call is an argument of another HC call. */
   depth: number;
   /** Called after each table call that was computed (not served from memo); drives the CLI's progress bar. */
@@ -61,7 +65,7 @@ export const MEMO_ENTRIES = 128;
 
 export function newContext(): EngineContext {
   return {
-    kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map(), memoCount: new Map(), remember: 0, depth: 0,
+    kind: CONTEXT_KIND, building: false, pending: new Map(), predicted: new WeakMap(), memo: new Map(), memoCount: new Map(), remember: 0, sizing: 0, rangeCacheHits: 0, depth: 0,
   };
 }
 

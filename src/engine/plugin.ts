@@ -15,7 +15,7 @@ import { invoke } from '../functions/invoke';
 import { FunctionSpec } from '../functions/spec';
 import { addressKey, EngineContext, isEngineContext, memoised, newContext, recordPrediction } from './context';
 import { callKey } from './memo-key';
-import { ErrorArgument, fromResult, Plain, sizeOf, toPlain } from './values';
+import { ErrorArgument, fromResult, Plain, PlainCell, RANGE_CACHE_KEY, RangeCache, sizeOf, toPlain } from './values';
 
 /**
  * The function table as a HyperFormula function plugin: one `HC.<NAME>` entry per FunctionSpec, built
@@ -106,15 +106,34 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     }
   }
 
+  /** Converted range values kept in HyperFormula's range vertices (see RangeCache in values.ts). */
+  private readonly rangeCache: RangeCache = {
+    get: (v) => {
+      const vertex = this.rangeVertex(v);
+      const rows = vertex?.getFunctionValue(RANGE_CACHE_KEY) as unknown as PlainCell[][] | undefined;
+      if (rows) this.hc.rangeCacheHits++;
+      return rows;
+    },
+    set: (v, rows) => this.rangeVertex(v)?.setFunctionValue(RANGE_CACHE_KEY, rows as never),
+  };
+
+  private rangeVertex(v: SimpleRangeValue) {
+    const range = v.range;
+    return range ? this.dependencyGraph.getRange(range.start, range.end) : undefined;
+  }
+
   private callTable(spec: FunctionSpec, values: unknown[], nested: boolean): unknown {
     let args: Plain[];
+    const ctx = this.hc;
+    // Not while a size method runs: at parse time the cells may still hold values from before an edit.
+    const cache = ctx.sizing > 0 ? undefined : this.rangeCache;
     try {
-      args = values.map(toPlain);
+      args = new Array(values.length);
+      for (let k = 0; k < values.length; k++) args[k] = toPlain(values[k], cache);
     } catch (e) {
       if (e instanceof ErrorArgument) return e.error;
       throw e;
     }
-    const ctx = this.hc;
     // Keyed only when the memo could answer or will store (see EngineContext.memo): hashing costs microseconds.
     const key = spec.result === 'matrix' && (ctx.remember > 0 || ctx.memoCount.has(spec.name)) ? callKey(spec.name, args) : undefined;
     const result = memoised(ctx, key, args, () => {
@@ -168,12 +187,14 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     }
     let value: unknown;
     ctx.remember++;
+    ctx.sizing++;
     try {
       value = this.compute(spec, node, state);
     } catch {
       return provisional('it reads cells that were not computed yet');
     } finally {
       ctx.remember--;
+      ctx.sizing--;
     }
     const size = value instanceof SimpleRangeValue ? sizeOf(value) : { rows: 1, cols: 1 };
     recordPrediction(ctx, node, where, size);

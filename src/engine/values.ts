@@ -1,5 +1,6 @@
 import { CellError, EmptyValue, ErrorType, SimpleRangeValue } from 'hyperformula';
 import type { CallResult } from '../functions/invoke';
+import { markStable } from '../functions/parse-memo';
 
 /**
  * Conversions between HyperFormula's internal values and the plain shapes the function table expects
@@ -41,14 +42,41 @@ function scalarToPlain(v: unknown): PlainCell {
 const plainRows = new WeakMap<SimpleRangeValue, PlainCell[][]>();
 
 /**
+ * Where converted range values are kept between calls: HyperFormula's own per-range cache (the `functionCache`
+ * of the range's vertex in the dependency graph, which is also where it keeps SUM and friends). HyperFormula
+ * clears it whenever a cell of the range changes value (a recalculation reaches the range vertex before any
+ * formula reading it), so an entry is valid for as long as it exists. It is only used while formulas are
+ * evaluated, never while a size method reads cells at parse time (their values may be from before an edit).
+ */
+export interface RangeCache {
+  get(range: SimpleRangeValue): PlainCell[][] | undefined;
+  set(range: SimpleRangeValue, rows: PlainCell[][]): void;
+}
+
+/** The key under which the converted rows are kept in a range vertex's cache (not a function name). */
+export const RANGE_CACHE_KEY = 'HC plain rows';
+
+/**
  * One argument in plain form. A CellError argument, or an error anywhere inside a range, stops the call:
  * ErrorArgument is thrown so that the caller returns that error, as a spreadsheet propagates errors.
  * Plain rows are shared with the memo and other calls: callers must not modify them.
+ *
+ * With a `cache`, a range read from the sheet is converted into rows of its own (never the engine's), kept in
+ * the cache and declared stable (parse-memo.ts), so that the same range read again, unchanged, is the same
+ * grid and the table functions parse it once.
  */
-export function toPlain(v: unknown): Plain {
+export function toPlain(v: unknown, cache?: RangeCache): Plain {
   if (v instanceof SimpleRangeValue) {
     const known = plainRows.get(v);
     if (known) return known;
+    if (cache && v.range) {
+      const cached = cache.get(v);
+      if (cached) return cached;
+      const own = copyPlain(v.rawData() as unknown[][]);
+      markStable(own);
+      cache.set(v, own);
+      return own;
+    }
     // The range's own rows (made for this value) are passed on where every cell is already a number, text or
     // boolean; only rows with blanks or wrapped numbers are converted. Saves a copy of every large table.
     const data = v.rawData() as unknown[][];
@@ -60,13 +88,24 @@ export function toPlain(v: unknown): Plain {
         continue;
       }
       out ??= data.slice(0, r) as PlainCell[][];
-      const plainRow: PlainCell[] = new Array(row.length);
-      for (let c = 0; c < row.length; c++) plainRow[c] = scalarToPlain(row[c]);
-      out[r] = plainRow;
+      out[r] = plainRow(row);
     }
     return out ?? (data as PlainCell[][]);
   }
   return scalarToPlain(v);
+}
+
+function plainRow(row: unknown[]): PlainCell[] {
+  const out: PlainCell[] = new Array(row.length);
+  for (let c = 0; c < row.length; c++) out[c] = scalarToPlain(row[c]);
+  return out;
+}
+
+/** Rows of our own, converted: nothing shared with the engine's arrays. */
+function copyPlain(data: unknown[][]): PlainCell[][] {
+  const out: PlainCell[][] = new Array(data.length);
+  for (let r = 0; r < data.length; r++) out[r] = plainRow(data[r]);
+  return out;
 }
 
 function isPlainRow(row: unknown[]): boolean {
@@ -92,6 +131,8 @@ export function fromResult(result: CallResult, copy = true): number | string | b
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');
   const range = SimpleRangeValue.onlyValues(copy ? v.map((row) => row.slice()) : v);
   plainRows.set(range, v as PlainCell[][]);
+  // A call's result rows are never modified (the engine gets copies): a consuming call may memoise its parse.
+  markStable(v);
   return range;
 }
 

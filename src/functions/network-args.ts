@@ -4,9 +4,10 @@ import { ComplexArrays, impedance, transfer } from '../core/network';
 import { response } from '../core/response';
 import { LIMITS, networkWorkMessage } from '../core/limits';
 import { checkLadderRange, harmonicSpan, positiveSpan } from '../core/ladder-range';
-import { order, spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { order, Spectrum, spectrumFromTable, spectrumToTable } from '../core/spectrum';
 import { asChoice, asGrid, asNumber, asNumbers, asScalar, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
+import { parseOnce } from './parse-memo';
 
 /** Shared argument readers for every function that takes a ladder. */
 export const LADDER_HELP =
@@ -14,7 +15,10 @@ export const LADDER_HELP =
 export const VALUES_HELP = 'Optional row or column with one value per ladder row, replacing the value column (a design case).';
 export const SOURCE_HELP = '"voltage" (default: the spectrum is an ideal voltage source) or "current" (an ideal current source).';
 
-export const ladderArg = (v: unknown): LadderTable => parseLadder(asGrid(v, 'ladder'), 'ladder');
+export const ladderArg = (v: unknown): LadderTable => parseOnce(asGrid(v, 'ladder'), 'ladder', (g) => parseLadder(g, 'ladder'));
+/** A spectrum table argument; `name` is the argument's name in messages. */
+export const spectrumArg = (v: unknown, name = 'spectrum'): Spectrum =>
+  parseOnce(asGrid(v, name), 'spectrum', (g) => spectrumFromTable(g, name));
 export const valuesArg = (v: unknown, table: LadderTable): Float64Array | undefined =>
   isBlank(v) ? undefined : valuesFromGrid(asGrid(v, 'values'), table, 'values');
 export const sourceArg = (v: unknown) =>
@@ -120,7 +124,7 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
     result: 'matrix',
     example: '=HC.RESPONSE(HC.PULSE(0, 12, 0.4, 250000, 50), A2:C4)',
     impl: (spec, ladder, quantity, element, values, source) => {
-      const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
+      const s = spectrumArg(spec);
       const table = ladderArg(ladder);
       checkNetworkWork(table, order(s) + 1, 'harmonics (n = 0…N)');
       const q = quantityArg(quantity);

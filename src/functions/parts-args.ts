@@ -6,7 +6,7 @@ import { MEASURES, parseMeasure, spread } from '../core/tolerance';
 import { LIMITS } from '../core/limits';
 import { checkLadderRange, harmonicSpan } from '../core/ladder-range';
 import { asGrid, asInteger, asScalar, isBlank } from './coerce';
-import { elementArg, LADDER_HELP, ladderArg, quantityArg, SOURCE_HELP, sourceArg, VALUES_HELP, valuesArg } from './network-args';
+import { elementArg, LADDER_HELP, ladderArg, spectrumArg, quantityArg, SOURCE_HELP, sourceArg, VALUES_HELP, valuesArg } from './network-args';
 import { FunctionSpec } from './spec';
 
 const SPECTRUM_HELP = 'Source spectrum table (rows n, frequency, amplitude, phase), e.g. spilled by HC.PULSE.';
@@ -39,7 +39,7 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
     result: 'matrix',
     example: '=HC.STRESS(HC.PULSE(0, 12, 0.4, 250000, 50), A2:E6)',
     impl: (spec, ladder, values, source) => {
-      const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
+      const s = spectrumArg(spec);
       const table = ladderArg(ladder);
       const vals = valuesArg(values, table);
       const src = sourceArg(source);
@@ -75,7 +75,7 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
     result: 'matrix',
     example: '=HC.SPREAD(HC.PULSE(0, 12, 0.4, 250000, 50), A2:E6, "pp")',
     impl: (spec, ladder, measure, quantity, element, trials, values, source) => {
-      const s = spectrumFromTable(asGrid(spec, 'spectrum'), 'spectrum');
+      const s = spectrumArg(spec);
       const table = ladderArg(ladder);
       const opts = {
         quantity: quantityArg(quantity),

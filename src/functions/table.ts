@@ -11,7 +11,7 @@ import { FunctionSpec } from './spec';
 import * as net from './network-args';
 import { PARTS_FUNCTIONS } from './parts-args';
 
-const spectrumArg = (v: unknown, name = 'spectrum'): Spectrum => spectrumFromTable(asGrid(v, name), name);
+const { spectrumArg } = net;
 
 /**
  * HC.PWL's times and values, paired by position: a blank in both at the same place is skipped (a gap in the
