@@ -21,7 +21,7 @@ const LADDER: RawCellContent[][] = [
   ['shunt', 'R', 3.3, 5, 'RLOAD'],
 ];
 const SPECTRUM = spectrumToTable(pulse(0, 12, 0.4, 250e3, 30, 20e-9, 20e-9, 0));
-const SPEC_TOP = 8; // 0-based sheet row of the constant spectrum table (A9:D39)
+const SPEC_TOP = 8; // 0-based sheet row of the constant spectrum table (A9:D39, read as A9:D40)
 const ROWS = 4; // formula rows, each with its own values override in G:K
 
 /** Inputs: the ladder at A1:E6, a constant spectrum at A9:D39, overrides and formulas from row 50. */
@@ -30,7 +30,7 @@ function sheet(): RawCellContent[][] {
   while (rows.length < SPEC_TOP) rows.push([]);
   for (const r of SPECTRUM) rows.push([...r]);
   while (rows.length < 49) rows.push([]);
-  const spec = `$A$9:$D$${SPEC_TOP + SPECTRUM.length}`;
+  const spec = `$A$9:$D$${SPEC_TOP + SPECTRUM.length + 1}`; // and one blank row below the table
   for (let k = 0; k < ROWS; k++) {
     const r = 50 + k;
     const scale = 1 + 0.05 * k;
@@ -97,6 +97,13 @@ describe('range cache in the engine', () => {
       expect(values(hf)).toEqual(fresh(hf));
       if (col < 4 && row !== 3) expect(values(hf)[49][1]).not.toBe(old[49][1]);
     }
+    // The blank row read below the spectrum becomes a harmonic: cells that had no value at all.
+    const old = values(hf);
+    const n = SPECTRUM.length;
+    hf.setCellContents({ sheet: 0, row: SPEC_TOP + n, col: 0 }, [[n, n * 250e3, 0.25, 30]]);
+    expect(values(hf)[49][0]).not.toBe(old[49][0]);
+    expect(values(hf)[49][1]).not.toBe(old[49][1]);
+    expect(values(hf)).toEqual(fresh(hf));
   });
 
   it('sees rows inserted into and removed from a cached range, and a spilled source that changes', () => {
