@@ -131,8 +131,8 @@ export function fromResult(result: CallResult, copy = true): number | string | b
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');
   const range = SimpleRangeValue.onlyValues(copy ? v.map((row) => row.slice()) : v);
   plainRows.set(range, v as PlainCell[][]);
-  // A call's result rows are never modified (the engine gets copies): a consuming call may memoise its parse.
-  markStable(v);
+  // Not marked stable (parse-memo.ts): a nested result is normally read once, and a weak entry for each of
+  // 10,000 results per recalculation cost the garbage collector more than the rare second parse it saves.
   return range;
 }
 

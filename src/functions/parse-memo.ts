@@ -2,7 +2,7 @@
  * Memoised parses of tables (a spectrum, a ladder) by the identity of the grid an adapter hands over.
  *
  * Only grids an adapter has declared *stable* are memoised: arrays it promises never to modify, such as the
- * headless engine's cached range values and the rows of a nested result (src/engine/values.ts). A stable grid
+ * headless engine's cached range values (src/engine/values.ts). A stable grid
  * passed again (the same range in 10,000 rows, a spilled table read by several calls) is parsed once; the
  * value returned is the very object the first parse produced, so it is exactly what parsing would give.
  * Other grids (Excel's, which are fresh arrays on every call) are parsed every time, as before.
