@@ -1,11 +1,10 @@
 import { valueError } from '../core/errors';
 import { KIND_LETTER, LadderTable } from '../core/ladder';
-import { spectrumFromTable } from '../core/spectrum';
 import { stress } from '../core/stress';
 import { MEASURES, parseMeasure, spread } from '../core/tolerance';
 import { LIMITS } from '../core/limits';
 import { checkLadderRange, harmonicSpan } from '../core/ladder-range';
-import { asGrid, asInteger, asScalar, isBlank } from './coerce';
+import { asInteger, asScalar, isBlank } from './coerce';
 import { elementArg, LADDER_HELP, ladderArg, spectrumArg, quantityArg, SOURCE_HELP, sourceArg, VALUES_HELP, valuesArg } from './network-args';
 import { FunctionSpec } from './spec';
 

@@ -1,12 +1,12 @@
 import { numError, valueError } from '../core/errors';
 import { grouped, LIMITS } from '../core/limits';
-import { order, Spectrum, spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { order, Spectrum, spectrumToTable } from '../core/spectrum';
 import { combine, pulse, pwl, ramp, rectified, sampled, sine } from '../core/waveforms';
 import { crest, mean, power, rms, thd, trace, valueAt } from '../core/measures';
 import { peak, pp, valley } from '../core/extremes-scaled';
 import { formatEng, parseValue } from '../core/units';
 import { preferred } from '../core/preferred';
-import { asBool, asChoice, asGrid, asScalar, asInteger, asNumber, asNumbers, asText, asVector, isBlank } from './coerce';
+import { asBool, asChoice, asScalar, asInteger, asNumber, asNumbers, asText, asVector, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
 import * as net from './network-args';
 import { PARTS_FUNCTIONS } from './parts-args';
