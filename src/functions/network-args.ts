@@ -1,4 +1,4 @@
-import { numError, valueError } from '../core/errors';
+import { numError } from '../core/errors';
 import { findElement, LadderTable, parseLadder, valuesFromGrid } from '../core/ladder';
 import { ComplexArrays, impedance, transfer } from '../core/network';
 import { response } from '../core/response';
