@@ -2,6 +2,7 @@
 import { parseLadder, LadderTable } from '../src/core/ladder';
 import { pulse } from '../src/core/waveforms';
 import { Spectrum, spectrumToTable } from '../src/core/spectrum';
+export { rng } from '../test/support/rng';
 
 /** A buck converter's output filter: inductor with DCR, capacitor with ESR and ESL, resistive load. */
 export const LADDER_ROWS: (string | number)[][] = [
@@ -26,17 +27,6 @@ export function source(harmonics: number): Spectrum {
 
 export const sourceTable = (harmonics: number): number[][] => spectrumToTable(source(harmonics));
 
-/** Deterministic pseudo-random numbers in [0, 1) (mulberry32), so every run measures the same data. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Keeps results alive so the JIT cannot drop the work. */
 export let sink = 0;

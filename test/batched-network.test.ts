@@ -7,18 +7,8 @@ import { LadderTable, parseLadder } from '../src/core/ladder';
 import { impedance, LadderSolver, makePortBatch, makeSolution, SourceKind, transfer } from '../src/core/network';
 import { response } from '../src/core/response';
 import { makeSpectrum, Spectrum } from '../src/core/spectrum';
+import { rng } from './support/rng';
 
-/** Seeded generator (mulberry32), so a failing random case repeats. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const ROLES = ['series', 'shunt', '+', '||'];
 const KINDS = ['R', 'L', 'C'];

@@ -5,6 +5,7 @@ import {
   I_UNBOUNDED, impedance, LadderSolver, makeSolution, Solution, SourceKind, transfer, V_UNBOUNDED,
 } from '../src/core/network';
 import { failure } from './support/failure';
+import { rng } from './support/rng';
 
 const TWO_PI = 2 * Math.PI;
 const F = (...f: number[]) => Float64Array.from(f);
@@ -20,17 +21,6 @@ function solveAt(table: LadderTable, f: number, source: SourceKind = 'voltage', 
   return out;
 }
 
-/** Seeded generator (mulberry32), so a failing random case repeats. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('textbook networks (common practice, no source)', () => {
   it('RC low-pass: |H| = 1/√(1+(ωRC)²), phase −atan(ωRC), −3 dB at 1/(2πRC)', () => {

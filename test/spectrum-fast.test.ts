@@ -4,17 +4,8 @@
  */
 import { hypot2, makeSpectrum, spectrumFromTable, spectrumToTable } from '../src/core/spectrum';
 import { pulse } from '../src/core/waveforms';
+import { rng } from './support/rng';
 
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('hypot2', () => {
   it('equals Math.hypot bit for bit on random pairs over the whole exponent range', () => {
