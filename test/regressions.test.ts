@@ -8,6 +8,7 @@
 import { invoke, CallResult } from '../src/functions/invoke';
 import { FUNCTION_BY_NAME } from '../src/functions/table';
 import { grouped, LIMITS } from '../src/core/limits';
+import { createEngine } from '../src/engine';
 
 function call(name: string, ...args: unknown[]): CallResult {
   const spec = FUNCTION_BY_NAME.get(name);
@@ -332,5 +333,22 @@ describe('every size bound is a NUM error that names it', () => {
     const rows = Math.floor(LIMITS.rangeCells / 4) + 1;
     expectBound(failure('RMS', Array.from({ length: rows }, () => [1, 50, 1, 0])), `range of ${g(4 * rows)} cells; at most ${g(LIMITS.rangeCells)}`);
     expectBound(failure('ENG', 1, 'Ω'.repeat(LIMITS.textLength + 1)), `at most ${LIMITS.textLength} are allowed`);
+  });
+});
+
+describe('an omitted range argument in the headless engine', () => {
+  // Before: =HC.RESPONSE(s, ladder, , , , "current") gave #VALUE! "values must hold one value per ladder row:
+  // … values has 1", because HyperFormula hands an omitted range argument over as one blank cell.
+  it('is omitted, as in Excel', () => {
+    const ladder = [['series', 'R', 1], ['shunt', 'R', 1]];
+    const hf = createEngine({
+      S: [
+        ...ladder,
+        ['=HC.RMS(HC.RESPONSE(HC.SINE(2, 50), A1:C2, , , , "current"))', '=HC.SPREAD(HC.SINE(2, 50), A1:C2, "rms", , , , , )'],
+      ],
+    });
+    // A 2 A current source into 1 Ω to ground (the series 1 Ω leads to the far end, open): 2 V peak, √2 V rms.
+    expect(hf.getCellValue({ sheet: 0, row: 2, col: 0 })).toBeCloseTo(Math.SQRT2, 14);
+    expect(typeof hf.getCellValue({ sheet: 0, row: 2, col: 1 })).toBe('number');
   });
 });

@@ -66,13 +66,15 @@ function wrapDegrees(deg: number): number {
   return d;
 }
 
-/** The DESIGN §2 spectrum table: rows n = 0..N of [n, frequency Hz, amplitude (peak), phase deg]. */
-export function spectrumToTable(s: Spectrum): number[][] {
+/**
+ * Every amplitude into `amp` (at least N + 1 long); returns the largest. Throws where the spectrum has no table
+ * (a frequency or an amplitude beyond the number range), so a table can be promised before it is written.
+ */
+function amplitudes(s: Spectrum, amp: Float64Array): number {
   const N = order(s);
   if (N > 0 && !Number.isFinite(N * s.f0)) {
     throw numError(`the harmonic frequencies exceed the number range: ${N} × ${s.f0} Hz; lower the frequency or the harmonics.`);
   }
-  const amp = scratchOf(N + 1);
   let big = 0;
   for (let n = 0; n <= N; n++) {
     const a = hypot2(s.re[n], s.im[n]);
@@ -80,6 +82,19 @@ export function spectrumToTable(s: Spectrum): number[][] {
     big = Math.max(big, a);
   }
   if (!Number.isFinite(big)) throw numError('an amplitude of the spectrum exceeds the number range (about 1.8e308); scale the inputs down.');
+  return big;
+}
+
+/** Throws the error spectrumToTable(s) would throw, if any; otherwise that table has only finite numbers. */
+export function checkTableable(s: Spectrum): void {
+  amplitudes(s, scratchOf(order(s) + 1));
+}
+
+/** The DESIGN §2 spectrum table: rows n = 0..N of [n, frequency Hz, amplitude (peak), phase deg]. */
+export function spectrumToTable(s: Spectrum): number[][] {
+  const N = order(s);
+  const amp = scratchOf(N + 1);
+  const big = amplitudes(s, amp);
   const rows: number[][] = new Array(N + 1);
   rows[0] = [0, 0, s.re[0] + 0, 0];
   for (let n = 1; n <= N; n++) {

@@ -1,5 +1,5 @@
 import type { SimpleCellAddress } from 'hyperformula';
-import type { CallResult } from '../functions/invoke';
+import type { CallResult, SpectrumResult } from '../functions/invoke';
 import { sameArgs } from './memo-key';
 import type { Plain } from './values';
 
@@ -54,10 +54,12 @@ export interface PredictedSize {
   provisional?: string;
 }
 
+type Result = CallResult | SpectrumResult;
+
 export interface MemoEntry {
   name: string;
   args: readonly Plain[];
-  result: CallResult;
+  result: Result;
 }
 
 export const CONTEXT_KIND = 'harmonic-cells-engine-context';
@@ -90,18 +92,18 @@ export function recordPrediction(ctx: EngineContext, node: object, where: string
  * A memoised table call: most recent last, oldest dropped beyond MEMO_ENTRIES; a hash collision recomputes.
  * A computed result is stored only while `remember` is set (see EngineContext.memo).
  */
-export function memoised(
+export function memoised<R extends Result>(
   ctx: EngineContext,
   key: string | undefined,
   args: readonly Plain[],
-  compute: () => CallResult,
-): CallResult {
+  compute: () => R,
+): R {
   if (key === undefined) return compute();
   const hit = ctx.memo.get(key);
   if (hit && sameArgs(hit.args, args)) {
     ctx.memo.delete(key);
     ctx.memo.set(key, hit);
-    return hit.result;
+    return hit.result as R; // the key starts with the function's name, so the entry is of this function's kind
   }
   const result = compute();
   if (ctx.remember === 0) return result;

@@ -1,3 +1,5 @@
+import { Spectrum } from '../core/spectrum';
+import { SpectrumValue } from '../functions/spectral';
 import type { Plain } from './values';
 
 /**
@@ -30,12 +32,22 @@ function hashCell(h: number, c: unknown): number {
   return mix(h, 0x6e75); // null
 }
 
+function hashSpectrum(h: number, s: Spectrum): number {
+  h = hashCell(mix(h, 0x53500000 ^ s.re.length), s.f0);
+  for (let n = 0; n < s.re.length; n++) h = hashCell(hashCell(h, s.re[n]), s.im[n]);
+  return h;
+}
+
 /** The key for `name(args)`, or undefined when the arguments are too large to memoise. */
 export function callKey(name: string, args: readonly Plain[]): string | undefined {
   let h = 0x811c9dc5;
   let cells = 0;
   for (const a of args) {
-    if (Array.isArray(a)) {
+    if (a instanceof SpectrumValue) {
+      cells += 2 * a.spectrum.re.length;
+      if (cells > MEMO_MAX_CELLS) return undefined;
+      h = hashSpectrum(h, a.spectrum);
+    } else if (Array.isArray(a)) {
       h = mix(h, 0x41520000 ^ a.length);
       for (const row of a) {
         cells += row.length;
@@ -61,6 +73,10 @@ export function sameArgs(a: readonly Plain[], b: readonly Plain[]): boolean {
     const x = a[i];
     const y = b[i];
     if (Object.is(x, y)) continue;
+    if (x instanceof SpectrumValue || y instanceof SpectrumValue) {
+      if (!(x instanceof SpectrumValue && y instanceof SpectrumValue && sameSpectrum(x.spectrum, y.spectrum))) return false;
+      continue;
+    }
     if (!Array.isArray(x) || !Array.isArray(y)) {
       if (!sameCell(x, y)) return false;
       continue;
@@ -74,5 +90,12 @@ export function sameArgs(a: readonly Plain[], b: readonly Plain[]): boolean {
       for (let c = 0; c < rx.length; c++) if (!sameCell(rx[c], ry[c])) return false;
     }
   }
+  return true;
+}
+
+function sameSpectrum(a: Spectrum, b: Spectrum): boolean {
+  if (a === b) return true;
+  if (!Object.is(a.f0, b.f0) || a.re.length !== b.re.length) return false;
+  for (let n = 0; n < a.re.length; n++) if (!Object.is(a.re[n], b.re[n]) || !Object.is(a.im[n], b.im[n])) return false;
   return true;
 }

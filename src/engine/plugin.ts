@@ -11,11 +11,11 @@ import {
   SimpleCellAddress,
   SimpleRangeValue,
 } from 'hyperformula';
-import { invoke } from '../functions/invoke';
+import { invoke, invokeSpectrum } from '../functions/invoke';
 import { FunctionSpec } from '../functions/spec';
 import { addressKey, EngineContext, isEngineContext, memoised, newContext, recordPrediction } from './context';
 import { callKey } from './memo-key';
-import { ErrorArgument, fromResult, Plain, PlainCell, RANGE_CACHE_KEY, RangeCache, sizeOf, toPlain } from './values';
+import { ErrorArgument, fromResult, fromSpectrumResult, Plain, PlainCell, RANGE_CACHE_KEY, RangeCache, sizeOf, toPlain } from './values';
 
 /**
  * The function table as a HyperFormula function plugin: one `HC.<NAME>` entry per FunctionSpec, built
@@ -77,6 +77,16 @@ function parametersOf(spec: FunctionSpec): { parameters: FunctionArgument[]; rep
 /** Argument types whose value's size never sets the size of the call's result (HyperFormula's own rule). */
 const UNSIZED = new Set<FunctionArgumentType>([FunctionArgumentType.RANGE, FunctionArgumentType.ANY]);
 
+const isOmitted = (node: unknown): boolean => (node as { type?: unknown } | undefined)?.type === 'EMPTY';
+
+/** Per argument position, whether it is read as a spectrum (the last entry repeats, as the last argument may). */
+const SPECTRUM_ARGS = new WeakMap<FunctionSpec, boolean[]>();
+function spectrumArgs(spec: FunctionSpec): boolean[] {
+  let flags = SPECTRUM_ARGS.get(spec);
+  if (!flags) SPECTRUM_ARGS.set(spec, (flags = spec.args.length ? spec.args.map((a) => a.spectrum === true) : [false]));
+  return flags;
+}
+
 const methodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}`;
 const sizeMethodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}_size`;
 
@@ -100,7 +110,7 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     try {
       // depth > 1 here: this call is an argument of another HC call, which only reads its result.
       const nested = ctx.depth > 1;
-      return run(node.args, state, metadata, (...values: unknown[]) => this.callTable(spec, values, nested));
+      return run(node.args, state, metadata, (...values: unknown[]) => this.callTable(spec, values, nested, node.args));
     } finally {
       ctx.depth--;
     }
@@ -122,20 +132,33 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     return range ? this.dependencyGraph.getRange(range.start, range.end) : undefined;
   }
 
-  private callTable(spec: FunctionSpec, values: unknown[], nested: boolean): unknown {
+  private callTable(spec: FunctionSpec, values: unknown[], nested: boolean, argNodes: readonly unknown[]): unknown {
     let args: Plain[];
     const ctx = this.hc;
     // Not while a size method runs: at parse time the cells may still hold values from before an edit.
     const cache = ctx.sizing > 0 ? undefined : this.rangeCache;
+    const spectral = spectrumArgs(spec);
     try {
       args = new Array(values.length);
-      for (let k = 0; k < values.length; k++) args[k] = toPlain(values[k], cache);
+      for (let k = 0; k < values.length; k++) {
+        // An omitted argument (`=HC.RESPONSE(s, l, , , , "current")`) is null, as Excel passes it; HyperFormula
+        // would hand a range argument over as a range of one blank cell.
+        args[k] = isOmitted(argNodes[k]) ? null : toPlain(values[k], cache, spectral[Math.min(k, spectral.length - 1)]);
+      }
     } catch (e) {
       if (e instanceof ErrorArgument) return e.error;
       throw e;
     }
     // Keyed only when the memo could answer or will store (see EngineContext.memo): hashing costs microseconds.
     const key = spec.result === 'matrix' && (ctx.remember > 0 || ctx.memoCount.has(spec.name)) ? callKey(spec.name, args) : undefined;
+    if (spec.spectrum) {
+      // Kept as the spectrum: an enclosing HC call takes it as it is; a cell or another function gets its table.
+      return fromSpectrumResult(memoised(ctx, key, args, () => {
+        const r = invokeSpectrum(spec, args);
+        ctx.onCall?.(spec.name);
+        return r;
+      }));
+    }
     const result = memoised(ctx, key, args, () => {
       const r = invoke(spec, args);
       ctx.onCall?.(spec.name);

@@ -1,6 +1,8 @@
 import { CellError, EmptyValue, ErrorType, SimpleRangeValue } from 'hyperformula';
-import type { CallResult } from '../functions/invoke';
+import { order, Spectrum, spectrumToTable } from '../core/spectrum';
+import type { CallError, CallResult, SpectrumResult } from '../functions/invoke';
 import { markStable } from '../functions/parse-memo';
+import { SpectrumValue } from '../functions/spectral';
 
 /**
  * Conversions between HyperFormula's internal values and the plain shapes the function table expects
@@ -8,8 +10,8 @@ import { markStable } from '../functions/parse-memo';
  * 2-D arrays for ranges).
  */
 
-/** A value as the table's impl receives it. */
-export type Plain = number | string | boolean | null | PlainCell[][];
+/** A value as the table's impl receives it (a SpectrumValue only for an argument marked `spectrum`). */
+export type Plain = number | string | boolean | null | PlainCell[][] | SpectrumValue;
 export type PlainCell = number | string | boolean | null;
 
 /** Thrown inside a conversion to stop at the first error argument; carries the CellError to return. */
@@ -65,7 +67,8 @@ export const RANGE_CACHE_KEY = 'HC plain rows';
  * the cache and declared stable (parse-memo.ts), so that the same range read again, unchanged, is the same
  * grid and the table functions parse it once.
  */
-export function toPlain(v: unknown, cache?: RangeCache): Plain {
+export function toPlain(v: unknown, cache?: RangeCache, spectrum = false): Plain {
+  if (v instanceof SpectrumRange) return spectrum ? new SpectrumValue(v.spectrum) : v.rows();
   if (v instanceof SimpleRangeValue) {
     const known = plainRows.get(v);
     if (known) return known;
@@ -118,6 +121,46 @@ function isPlainRow(row: unknown[]): boolean {
 
 const ERROR_TYPE = { VALUE: ErrorType.VALUE, NUM: ErrorType.NUM, NA: ErrorType.NA } as const;
 
+const errorOf = (e: CallError): CellError => new CellError(ERROR_TYPE[e.code], e.message);
+
+/** HyperFormula's private fields this module's subclass touches (SimpleRangeValue.js, hyperformula 3.5). */
+interface RangeValueInternals {
+  _data?: unknown[][];
+}
+
+/**
+ * A spectrum-producing call's result as a range value whose table is written only when something reads it.
+ * Its size (N + 1 rows × 4) is known up front, which is all HyperFormula needs to pass it along; an enclosing
+ * HC call takes the Spectrum itself (toPlain), anything else that reads the cells gets the table, written on
+ * the first read through SimpleRangeValue's own ensureThatComputed (every read of its data goes through it).
+ */
+export class SpectrumRange extends SimpleRangeValue {
+  constructor(readonly spectrum: Spectrum) {
+    // The base constructor takes its size from data[0].length and data.length; this stand-in has just those.
+    super({ length: order(spectrum) + 1, 0: { length: 4 } } as unknown as never[][]);
+    (this as unknown as RangeValueInternals)._data = undefined;
+  }
+
+  /** The table (written now if it was not yet). */
+  rows(): PlainCell[][] {
+    return this.rawData() as PlainCell[][];
+  }
+}
+
+// SimpleRangeValue declares ensureThatComputed private, so it is replaced on the prototype rather than
+// overridden in the class body. Each SpectrumRange writes its own rows: the engine may pad or splice a spill's.
+Object.defineProperty(SpectrumRange.prototype, 'ensureThatComputed', {
+  value(this: SpectrumRange): void {
+    const self = this as unknown as RangeValueInternals;
+    if (self._data === undefined) self._data = spectrumToTable(this.spectrum);
+  },
+});
+
+/** A spectrum call's result as a HyperFormula value (see SpectrumRange), or its error. */
+export function fromSpectrumResult(result: SpectrumResult): SpectrumRange | CellError {
+  return result.ok ? new SpectrumRange(result.spectrum) : errorOf(result);
+}
+
 /**
  * A table call's result as a HyperFormula value: a scalar, a range (spilled) or a CellError with the message.
  * `copy` false is for a result that only another HC call reads (through toPlain); otherwise the rows are
@@ -125,7 +168,7 @@ const ERROR_TYPE = { VALUE: ErrorType.VALUE, NUM: ErrorType.NUM, NA: ErrorType.N
  * intact.
  */
 export function fromResult(result: CallResult, copy = true): number | string | boolean | SimpleRangeValue | CellError {
-  if (!result.ok) return new CellError(ERROR_TYPE[result.code], result.message);
+  if (!result.ok) return errorOf(result);
   const v = result.value;
   if (!Array.isArray(v)) return v;
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');

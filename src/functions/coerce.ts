@@ -1,6 +1,7 @@
 import { numError, valueError } from '../core/errors';
 import { grouped, LIMITS } from '../core/limits';
 import { parseValue } from '../core/units';
+import { SpectrumValue } from './spectral';
 
 /**
  * Argument coercion shared by every adapter. Excel passes null for an omitted argument and a 2-D array for a
@@ -107,6 +108,8 @@ export function checkLength(t: string, name: string): string {
  */
 export function asGrid(v: unknown, name: string): Grid {
   if (isBlank(v)) throw valueError(`${name} is missing: give a range or an array.`);
+  // A spectrum handed over by a nested call (spectral.ts) reads as the table it stands for.
+  if (v instanceof SpectrumValue) return v.table();
   if (!Array.isArray(v)) return [[v as Cell]];
   let cells = 0;
   let plain = true;

@@ -4,10 +4,11 @@ import { ComplexArrays, impedance, transfer } from '../core/network';
 import { response } from '../core/response';
 import { LIMITS, networkWorkMessage } from '../core/limits';
 import { checkLadderRange, harmonicSpan, positiveSpan } from '../core/ladder-range';
-import { order, Spectrum, spectrumFromTable, spectrumToTable } from '../core/spectrum';
+import { order, Spectrum, spectrumFromTable } from '../core/spectrum';
 import { asChoice, asGrid, asNumber, asNumbers, asScalar, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
 import { parseOnce } from './parse-memo';
+import { spectral, SpectrumValue } from './spectral';
 
 /** Shared argument readers for every function that takes a ladder. */
 export const LADDER_HELP =
@@ -18,7 +19,7 @@ export const SOURCE_HELP = '"voltage" (default: the spectrum is an ideal voltage
 export const ladderArg = (v: unknown): LadderTable => parseOnce(asGrid(v, 'ladder'), 'ladder', (g) => parseLadder(g, 'ladder'));
 /** A spectrum table argument; `name` is the argument's name in messages. */
 export const spectrumArg = (v: unknown, name = 'spectrum'): Spectrum =>
-  parseOnce(asGrid(v, name), 'spectrum', (g) => spectrumFromTable(g, name));
+  v instanceof SpectrumValue ? v.spectrum : parseOnce(asGrid(v, name), 'spectrum', (g) => spectrumFromTable(g, name));
 export const valuesArg = (v: unknown, table: LadderTable): Float64Array | undefined =>
   isBlank(v) ? undefined : valuesFromGrid(asGrid(v, 'values'), table, 'values');
 export const sourceArg = (v: unknown) =>
@@ -109,21 +110,20 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
       return formatted(transfer(table, freqs, vals), freqs, fm);
     },
   },
-  {
+  spectral({
     name: 'RESPONSE',
     description:
       'Spectrum of a voltage or current in the ladder driven by a source spectrum: far-end voltage, source current, or one element’s voltage or current.',
     args: [
-      { name: 'spectrum', kind: 'range', help: 'Source spectrum table (rows n, frequency, amplitude, phase).' },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: 'Source spectrum table (rows n, frequency, amplitude, phase).' },
       { name: 'ladder', kind: 'range', help: LADDER_HELP },
       { name: 'quantity', kind: 'text', help: '"V" (default: far-end voltage, or the voltage across the element) or "I" (source current, or the current through the element).', optional: true },
       { name: 'element', kind: 'any', help: 'Element name (e.g. C2) or 1-based ladder row; omit for the far end / the source.', optional: true },
       { name: 'values', kind: 'range', help: VALUES_HELP, optional: true },
       { name: 'source', kind: 'text', help: SOURCE_HELP, optional: true },
     ],
-    result: 'matrix',
     example: '=HC.RESPONSE(HC.PULSE(0, 12, 0.4, 250000, 50), A2:C4)',
-    impl: (spec, ladder, quantity, element, values, source) => {
+    spectrum: (spec, ladder, quantity, element, values, source) => {
       const s = spectrumArg(spec);
       const table = ladderArg(ladder);
       checkNetworkWork(table, order(s) + 1, 'harmonics (n = 0…N)');
@@ -132,7 +132,7 @@ export const NETWORK_FUNCTIONS: FunctionSpec[] = [
       const vals = valuesArg(values, table);
       const src = sourceArg(source);
       checkLadderRange(table, ...harmonicSpan(s), { values: vals });
-      return spectrumToTable(response(s, table, { quantity: q, element: el, values: vals, source: src }));
+      return response(s, table, { quantity: q, element: el, values: vals, source: src });
     },
-  },
+  }),
 ];

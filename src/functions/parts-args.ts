@@ -30,7 +30,7 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
       'The label is the part’s name, or "row 3 C" (element row and kind) where the ladder gives none; no header row. ' +
       'Peaks are the largest |value| over a period.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'ladder', kind: 'range', help: LADDER_HELP },
       { name: 'values', kind: 'range', help: VALUES_HELP, optional: true },
       { name: 'source', kind: 'text', help: SOURCE_HELP, optional: true },
@@ -57,7 +57,7 @@ export const PARTS_FUNCTIONS: FunctionSpec[] = [
       'Min, nominal and max of a measure of a response over the ladder’s tolerances: every corner of the tolerance box, ' +
       'or a repeatable Monte Carlo run (parts uniform within ± tolerance) when trials is given. The nominal counts in min and max.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'ladder', kind: 'range', help: `${LADDER_HELP} The tolerance column sets each part’s ± band.` },
       { name: 'measure', kind: 'text', help: `One of ${MEASURES.join(', ')} (acrms: RMS without DC; thd: to the fundamental).` },
       { name: 'quantity', kind: 'text', help: '"V" (default: far-end voltage, or the voltage across the element) or "I" (source current, or the current through the element).', optional: true },

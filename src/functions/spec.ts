@@ -16,7 +16,14 @@ export interface ArgSpec {
   help: string;          // one line shown in the argument tooltip
   optional?: boolean;
   repeating?: boolean;   // only the last argument; Excel repeating parameter (HC.COMBINE)
+  /**
+   * A range read as a spectrum table (through spectrumArg). The headless engine may then pass it the Spectrum
+   * a nested call computed, without writing and re-reading its table (spectral.ts).
+   */
+  spectrum?: boolean;
 }
+
+import type { Spectrum } from '../core/spectrum';
 
 export type Returned = number | string | boolean | (number | string)[][];
 
@@ -28,4 +35,6 @@ export interface FunctionSpec {
   example: string;       // a formula a user can paste, used by the help page and docs
   /** The implementation: receives raw adapter values (null for omitted), coerces them, calls the core. */
   impl: (...args: unknown[]) => Returned;
+  /** For a function whose result is a spectrum table: the spectrum itself (impl writes its table). */
+  spectrum?: (...args: unknown[]) => Spectrum;
 }

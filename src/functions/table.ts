@@ -1,6 +1,6 @@
 import { numError, valueError } from '../core/errors';
 import { grouped, LIMITS } from '../core/limits';
-import { order, Spectrum, spectrumToTable } from '../core/spectrum';
+import { order } from '../core/spectrum';
 import { combine, pulse, pwl, ramp, rectified, sampled, sine } from '../core/waveforms';
 import { crest, mean, power, rms, thd, trace, valueAt } from '../core/measures';
 import { peak, pp, valley } from '../core/extremes-scaled';
@@ -8,6 +8,7 @@ import { formatEng, parseValue } from '../core/units';
 import { preferred } from '../core/preferred';
 import { asBool, asChoice, asScalar, asInteger, asNumber, asNumbers, asText, asVector, isBlank } from './coerce';
 import { FunctionSpec } from './spec';
+import { spectral } from './spectral';
 import * as net from './network-args';
 import { PARTS_FUNCTIONS } from './parts-args';
 
@@ -42,7 +43,6 @@ function pwlPoints(t: unknown, v: unknown): { times: number[]; values: number[] 
   if (times.length === 0) throw valueError('times and values hold no points.');
   return { times, values };
 }
-const table = (s: Spectrum): number[][] => spectrumToTable(s);
 
 const HARMONICS_HELP = `Highest harmonic order N (0…${LIMITS.harmonics}); the result spills N+1 rows n = 0…N.`;
 const SPECTRUM_HELP = 'A spectrum table: rows of n, frequency (Hz), amplitude (peak), phase (deg), as spilled by HC.PULSE etc.';
@@ -51,7 +51,7 @@ const TRUNCATED_HELP =
 
 export const FUNCTIONS: FunctionSpec[] = [
   // ---- waveform → spectrum -------------------------------------------------------------------------------
-  {
+  spectral({
     name: 'PULSE',
     description:
       'Spectrum of a rectangular or trapezoidal pulse train: DC and harmonics n = 0…N as rows of n, frequency, peak amplitude, phase.',
@@ -65,17 +65,14 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'fall', kind: 'number', help: 'Fall time in seconds, linear edge (default 0).', optional: true },
       { name: 'delay', kind: 'number', help: 'Shift in seconds of the 50 % point of the rising edge from t = 0 (default 0).', optional: true },
     ],
-    result: 'matrix',
     example: '=HC.PULSE(0, 12, 0.4, 250000, 50)',
-    impl: (low, high, duty, f, n, rise, fall, delay) =>
-      table(
-        pulse(
-          asNumber(low, 'low'), asNumber(high, 'high'), asNumber(duty, 'duty'), asNumber(f, 'frequency'),
-          asInteger(n, 'harmonics'), asNumber(rise, 'rise', 0), asNumber(fall, 'fall', 0), asNumber(delay, 'delay', 0),
-        ),
+    spectrum: (low, high, duty, f, n, rise, fall, delay) =>
+      pulse(
+        asNumber(low, 'low'), asNumber(high, 'high'), asNumber(duty, 'duty'), asNumber(f, 'frequency'),
+        asInteger(n, 'harmonics'), asNumber(rise, 'rise', 0), asNumber(fall, 'fall', 0), asNumber(delay, 'delay', 0),
       ),
-  },
-  {
+  }),
+  spectral({
     name: 'RAMP',
     description: 'Spectrum of a triangle or sawtooth wave: rise_fraction 0.5 triangle, 1 rising sawtooth, 0 falling sawtooth.',
     args: [
@@ -85,12 +82,11 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'harmonics', kind: 'integer', help: HARMONICS_HELP },
       { name: 'rise_fraction', kind: 'number', help: 'Fraction of the period spent rising, 0…1 (default 0.5, a triangle).', optional: true },
     ],
-    result: 'matrix',
     example: '=HC.RAMP(-1, 1, 1000, 25)',
-    impl: (low, high, f, n, rf) =>
-      table(ramp(asNumber(low, 'low'), asNumber(high, 'high'), asNumber(f, 'frequency'), asInteger(n, 'harmonics'), asNumber(rf, 'rise_fraction', 0.5))),
-  },
-  {
+    spectrum: (low, high, f, n, rf) =>
+      ramp(asNumber(low, 'low'), asNumber(high, 'high'), asNumber(f, 'frequency'), asInteger(n, 'harmonics'), asNumber(rf, 'rise_fraction', 0.5)),
+  }),
+  spectral({
     name: 'RECTIFIED',
     description: 'Spectrum of a full- or half-wave rectified sine; n counts multiples of the line frequency.',
     args: [
@@ -99,15 +95,12 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'harmonics', kind: 'integer', help: HARMONICS_HELP },
       { name: 'mode', kind: 'text', help: '"full" (default) or "half".', optional: true },
     ],
-    result: 'matrix',
     example: '=HC.RECTIFIED(325, 50, 20)',
-    impl: (pk, f, n, mode) =>
-      table(
-        rectified(asNumber(pk, 'peak'), asNumber(f, 'line_frequency'), asInteger(n, 'harmonics'),
-          asChoice(mode, 'mode', { full: 'full', 'full-wave': 'full', half: 'half', 'half-wave': 'half' }, 'full')),
-      ),
-  },
-  {
+    spectrum: (pk, f, n, mode) =>
+      rectified(asNumber(pk, 'peak'), asNumber(f, 'line_frequency'), asInteger(n, 'harmonics'),
+        asChoice(mode, 'mode', { full: 'full', 'full-wave': 'full', half: 'half', 'half-wave': 'half' }, 'full')),
+  }),
+  spectral({
     name: 'PWL',
     description: 'Exact spectrum of a periodic piecewise-linear waveform through (time, value) points; a repeated time is a jump.',
     args: [
@@ -116,14 +109,13 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'harmonics', kind: 'integer', help: HARMONICS_HELP },
       { name: 'period', kind: 'number', help: 'Period in seconds (default: last time − first time).', optional: true },
     ],
-    result: 'matrix',
     example: '=HC.PWL({0;1E-6;4E-6;5E-6}, {0;2;2;0}, 30, 1E-5)',
-    impl: (t, v, n, period) => {
+    spectrum: (t, v, n, period) => {
       const { times, values } = pwlPoints(t, v);
-      return table(pwl(times, values, asInteger(n, 'harmonics'), isBlank(period) ? undefined : asNumber(period, 'period')));
+      return pwl(times, values, asInteger(n, 'harmonics'), isBlank(period) ? undefined : asNumber(period, 'period'));
     },
-  },
-  {
+  }),
+  spectral({
     name: 'SAMPLED',
     description: 'Spectrum of one period of uniformly spaced samples (e.g. a scope capture), by FFT of any length.',
     args: [
@@ -131,14 +123,13 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'sample_rate', kind: 'number', help: 'Samples per second; the fundamental is sample_rate / count.' },
       { name: 'harmonics', kind: 'integer', help: 'Highest harmonic order N, at most half the sample count; spills N+1 rows.' },
     ],
-    result: 'matrix',
     example: '=HC.SAMPLED(B2:B129, 12800, 20)',
-    impl: (v, rate, n) => {
+    spectrum: (v, rate, n) => {
       const vals = asNumbers(v, 'values', { blanks: 'trailing', max: LIMITS.samples, maxWhat: 'samples' });
-      return table(sampled(vals, asNumber(rate, 'sample_rate'), asInteger(n, 'harmonics')));
+      return sampled(vals, asNumber(rate, 'sample_rate'), asInteger(n, 'harmonics'));
     },
-  },
-  {
+  }),
+  spectral({
     name: 'SINE',
     description: 'Spectrum of a single tone with an optional DC offset (two rows: DC and the tone).',
     args: [
@@ -147,18 +138,16 @@ export const FUNCTIONS: FunctionSpec[] = [
       { name: 'phase', kind: 'number', help: 'Phase in degrees, cosine reference (default 0).', optional: true },
       { name: 'offset', kind: 'number', help: 'DC offset (default 0).', optional: true },
     ],
-    result: 'matrix',
     example: '=HC.SINE(1.5, 50, -30)',
-    impl: (a, f, ph, off) =>
-      table(sine(asNumber(a, 'amplitude'), asNumber(f, 'frequency'), asNumber(ph, 'phase', 0), asNumber(off, 'offset', 0))),
-  },
-  {
+    spectrum: (a, f, ph, off) =>
+      sine(asNumber(a, 'amplitude'), asNumber(f, 'frequency'), asNumber(ph, 'phase', 0), asNumber(off, 'offset', 0)),
+  }),
+  spectral({
     name: 'COMBINE',
     description: 'Superposition (sum) of spectra whose frequencies share a common fundamental.',
-    args: [{ name: 'spectrum', kind: 'range', help: 'Spectrum tables to add.', repeating: true }],
-    result: 'matrix',
+    args: [{ name: 'spectrum', kind: 'range', spectrum: true, help: 'Spectrum tables to add.', repeating: true }],
     example: '=HC.COMBINE(HC.SINE(1, 50), HC.SINE(0.2, 150, 90))',
-    impl: (...specs) => {
+    spectrum: (...specs) => {
       const given = specs.filter((s) => !isBlank(s));
       if (given.length === 0) throw valueError('COMBINE needs at least one spectrum.');
       if (given.length > LIMITS.combine) throw numError(`COMBINE takes at most ${LIMITS.combine} spectra, got ${given.length}.`);
@@ -174,16 +163,16 @@ export const FUNCTIONS: FunctionSpec[] = [
         }
         return sp;
       });
-      return table(combine(spectra));
+      return combine(spectra);
     },
-  },
+  }),
   // ---- network --------------------------------------------------------------------------------------------
   ...net.NETWORK_FUNCTIONS,
   // ---- measures -------------------------------------------------------------------------------------------
   {
     name: 'MEAN',
     description: 'Mean (DC) value of a spectrum.',
-    args: [{ name: 'spectrum', kind: 'range', help: SPECTRUM_HELP }],
+    args: [{ name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP }],
     result: 'number',
     example: '=HC.MEAN(HC.PULSE(0, 5, 0.3, 1000, 20))',
     impl: (s) => mean(spectrumArg(s)),
@@ -192,7 +181,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'RMS',
     description: 'RMS value of the waveform of a spectrum (Parseval), with or without its DC part.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'ac_only', kind: 'bool', help: 'TRUE: leave out DC (AC RMS, i.e. ripple RMS). Default FALSE.', optional: true },
     ],
     result: 'number',
@@ -207,7 +196,7 @@ export const FUNCTIONS: FunctionSpec[] = [
       name,
       description: `${what} of the waveform over one whole period.`,
       args: [
-        { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+        { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
         { name: 'truncated', kind: 'bool', help: TRUNCATED_HELP, optional: true },
       ],
       result: 'number',
@@ -219,7 +208,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'CREST',
     description: 'Crest factor: largest |value| over a period divided by the RMS value.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'truncated', kind: 'bool', help: TRUNCATED_HELP, optional: true },
     ],
     result: 'number',
@@ -230,7 +219,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'THD',
     description: 'Total harmonic distortion (DC excluded), relative to the fundamental or to the AC RMS.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'reference', kind: 'text', help: '"fundamental" (default) or "rms".', optional: true },
     ],
     result: 'number',
@@ -242,7 +231,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'ATTIME', // DESIGN §3 calls it AT; Excel needs names of at least three characters
     description: 'Instantaneous value of the waveform of a spectrum at a time.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'time', kind: 'number', help: 'Time in seconds (t = 0 as defined by the source function).' },
     ],
     result: 'number',
@@ -253,7 +242,7 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'TRACE',
     description: 'Time and value columns of the waveform of a spectrum, for a chart.',
     args: [
-      { name: 'spectrum', kind: 'range', help: SPECTRUM_HELP },
+      { name: 'spectrum', kind: 'range', spectrum: true, help: SPECTRUM_HELP },
       { name: 'points', kind: 'integer', help: `Rows to spill (2…${LIMITS.tracePoints}, default 200).`, optional: true },
       { name: 'periods', kind: 'number', help: `Periods to span (default 1, at most ${LIMITS.tracePeriods}).`, optional: true },
     ],
@@ -270,8 +259,8 @@ export const FUNCTIONS: FunctionSpec[] = [
     name: 'POWER',
     description: 'Mean power of a voltage spectrum and a current spectrum on the same fundamental.',
     args: [
-      { name: 'voltage_spectrum', kind: 'range', help: 'Spectrum of the voltage across the part or port.' },
-      { name: 'current_spectrum', kind: 'range', help: 'Spectrum of the current into it, same fundamental.' },
+      { name: 'voltage_spectrum', kind: 'range', spectrum: true, help: 'Spectrum of the voltage across the part or port.' },
+      { name: 'current_spectrum', kind: 'range', spectrum: true, help: 'Spectrum of the current into it, same fundamental.' },
     ],
     result: 'number',
     example: '=HC.POWER(HC.SINE(325, 50), HC.SINE(2, 50, -20))',
