@@ -40,7 +40,15 @@ function calibrate(fn: () => unknown, sampleMs: number): number {
   }
 }
 
+const gcMinor = (global as { gc?: (o: { type: 'minor' }) => void }).gc;
+
+/**
+ * One sample. With --expose-gc (npm run bench) the young generation is emptied first, untimed, so that neither
+ * side pays for scavenging what the other side's last sample left behind. (A full collection would also shrink
+ * the young generation, slowing the sample that follows.)
+ */
 function sample(fn: () => unknown, inner: number): number {
+  gcMinor?.({ type: 'minor' });
   const t0 = performance.now();
   for (let i = 0; i < inner; i++) fn();
   return (performance.now() - t0) / inner;

@@ -112,7 +112,8 @@ describe('range cache in the engine', () => {
     rows[SPEC_TOP][13] = '=HC.PULSE(0, 12, N1, 250000, 30)';
     rows[49][2] = `=HC.RMS(HC.RESPONSE(N9:Q39, $A$1:$E$6))`;
     rows[50][2] = `=HC.PEAK(HC.RESPONSE(N9:Q39, $A$1:$E$6))`;
-    const hf = createEngine({ S: rows });
+    // The engine keeps no undo history unless asked (ENGINE_CONFIG); undo must not see stale cached ranges either.
+    const hf = createEngine({ S: rows }, { config: { undoLimit: 20 } });
     expect(values(hf)).toEqual(fresh(hf));
     const c50 = hf.getCellValue({ sheet: 0, row: 49, col: 2 });
     hf.setCellContents({ sheet: 0, row: 0, col: 13 }, [[0.3]]);

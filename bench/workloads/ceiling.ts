@@ -15,25 +15,25 @@ import { benchLine, pair } from '../timing';
 const FREQS = 2000;
 
 /**
- * Flops per frequency of portsBatch with a voltage source (its fast pass; see network.ts):
- * element impedance L 1 (ω·v), C 2 (ω·v, 1/x), R 0; a `+` fold or a series load is a snapped complex sum,
- * 7 (3 additions for the scale, 2 for the sum, 2 multiplications for the thresholds); a `||` fold or a shunt
- * load is a parallel combination, 24 (sum 7, reciprocal 5, two complex products 12); forward: reciprocal of
- * the input impedance 5, each series branch one complex product 6, each shunt branch before the last a
- * reciprocal and a product 11.
+ * Flops per frequency of portsBatch (its backward cascade; see network.ts), for the branches up to the last
+ * shunt, which are all it evaluates: element impedance L 1 (ω·v), C 2 (ω·v, 1/x), R 0; a `+` fold is a snapped
+ * complex sum, 7 (3 additions for the scale, 2 for the sum, 2 multiplications for the thresholds); a `||` fold
+ * 25 (sum 7, reciprocal 6, two complex products 12); a reciprocal is 6 (|z|² 3, 1/x, two products). Then per
+ * branch, backwards: a shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped sum 7); a series branch adds
+ * Z·I to V, 13 (product 6, snapped sum 7); at the source one reciprocal and one product, 12.
  */
 export function kernelFlops(t: LadderTable): number {
-  let flops = 0;
-  for (let i = 0; i < t.rows; i++) {
-    flops += t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0;
-    if (t.role[i] === PLUS) flops += 7;
-    if (t.role[i] === ACROSS) flops += 24;
-  }
   let last = -1;
   for (let b = 0; b < t.branches; b++) if (t.role[t.branchStart[b]] === SHUNT) last = b;
-  for (let b = last - 1; b >= 0; b--) flops += t.role[t.branchStart[b]] === SHUNT ? 24 : 7;
-  flops += 5;
-  for (let b = 0; b < last; b++) flops += t.role[t.branchStart[b]] === SHUNT ? 11 : 6;
+  let flops = 12;
+  for (let b = 0; b <= last; b++) {
+    for (let i = t.branchStart[b]; i < t.branchStart[b + 1]; i++) {
+      flops += t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0;
+      if (t.role[i] === PLUS) flops += 7;
+      if (t.role[i] === ACROSS) flops += 25;
+    }
+    flops += t.role[t.branchStart[b]] === SHUNT ? 19 : 13;
+  }
   return flops;
 }
 

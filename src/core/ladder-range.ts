@@ -35,11 +35,11 @@ export function checkLadderRange(
     const lo = v * (1 - t);
     const hi = v * (1 + t);
     const kind = table.kind[i];
-    const where = `ladder ${describeElement(table, i)}`;
+    const where = (): string => `ladder ${describeElement(table, i)}`; // worded only for an error
     if (!(lo >= min && hi <= max)) {
       const band = t > 0 ? ` (${formatEng(lo, UNIT[kind])} … ${formatEng(hi, UNIT[kind])} with its tolerance)` : '';
       throw numError(
-        `${where}: the ${NOUN[kind]} ${formatEng(v, UNIT[kind])}${band} is outside the ${SPAN} ${UNIT[kind]} the ladder ` +
+        `${where()}: the ${NOUN[kind]} ${formatEng(v, UNIT[kind])}${band} is outside the ${SPAN} ${UNIT[kind]} the ladder ` +
           'solver works in; check the value and its unit.',
       );
     }
@@ -53,7 +53,7 @@ export function checkLadderRange(
       const z = atHigh ? zHigh : zLow;
       const shown = Number.isFinite(z) ? formatEng(z, 'Ω') : 'more than 1.8e308 Ω';
       throw numError(
-        `${where}: ${formatEng(v, UNIT[kind])} at ${formatEng(f, 'Hz')} has an impedance of ${shown}, outside the ` +
+        `${where()}: ${formatEng(v, UNIT[kind])} at ${formatEng(f, 'Hz')} has an impedance of ${shown}, outside the ` +
           `${SPAN} Ω the ladder solver works in; check the value, its unit and the frequency.`,
       );
     }

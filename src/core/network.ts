@@ -98,6 +98,17 @@ export function batchBuffers(count: number): { w: Float64Array; batch: PortBatch
   return sharedBatch;
 }
 
+let sharedSolution: Solution | undefined;
+
+/**
+ * A Solution for `table`'s row count shared by callers that read it before calling anything else that uses it
+ * (response.ts's harmonics left to solve()), so a response allocates none (each is an off-heap allocation).
+ */
+export function scratchSolution(table: LadderTable): Solution {
+  if (!sharedSolution || sharedSolution.vRe.length !== table.rows) sharedSolution = makeSolution(table);
+  return sharedSolution;
+}
+
 export function makeSolution(table: LadderTable): Solution {
   const n = table.rows;
   const f = new Float64Array(4 * n + 4); // one backing store (see LadderSolver)
@@ -242,9 +253,22 @@ function csum(ar: number, ai: number, br: number, bi: number): boolean {
   return sr !== 0 || si !== 0;
 }
 
-/** OUT = 1/a with the same scaling as `inv`; false for a = 0 (underflow). */
+/**
+ * |a|² between these bounds: 1/a = conj(a)/|a|² takes one division and loses nothing to overflow or underflow
+ * (the smaller square, where it underflows, is below the larger's last bit). Outside them the scaled form
+ * (Smith's, as `inv` uses) takes two divisions. The batched pass (portsChunk) forms every reciprocal the same way.
+ */
+const RECIP_MIN = 1e-290;
+const RECIP_MAX = 1e290;
+
+/** OUT = 1/a; false for a = 0 (underflow). */
 function crecip(ar: number, ai: number): boolean {
-  if (Math.abs(ar) >= Math.abs(ai)) {
+  const d = ar * ar + ai * ai;
+  if (d > RECIP_MIN && d < RECIP_MAX) {
+    const t = 1 / d;
+    OUT[0] = ar * t;
+    OUT[1] = -ai * t;
+  } else if (Math.abs(ar) >= Math.abs(ai)) {
     if (ar === 0) return false;
     const q = ai / ar, s = 1 / (ar + ai * q);
     OUT[0] = s;
@@ -284,36 +308,21 @@ function solverMemory(size: number): Float64Array {
   return solverStore;
 }
 
-/** Frequencies per pass of portsBatch: bounds its scratch (≤ 1.6 MB at 200 branches) and keeps it in cache. */
+/** Frequencies per pass of portsBatch: keeps its scratch (4 × 2 kB) in cache. */
 const BATCH = 256;
 
-/** Scratch of portsBatch, shared by every solver (calls never overlap) and grown as needed. */
+/** Scratch of portsBatch (the running far-end-side voltage and current per frequency), shared by every solver. */
 interface BatchScratch {
-  zr: Float64Array;
-  zi: Float64Array;
-  /** Forward pass: node voltage and branch current per frequency. */
   vr: Float64Array;
   vi: Float64Array;
   ir: Float64Array;
   ii: Float64Array;
-  wr: Float64Array;
-  wi: Float64Array;
-  lr: Float64Array;
-  li: Float64Array;
 }
 let scratch: BatchScratch | undefined;
 
-/** Element impedances (count slots) and branch composites and loads (branches × count slots, [b·count + k]). */
-function batchScratch(count: number, branches: number): BatchScratch {
-  const size = count * branches;
-  if (!scratch || scratch.zr.length < count || scratch.wr.length < size) {
-    const k = Math.max(count, scratch?.zr.length ?? 0);
-    const m = Math.max(size, scratch?.wr.length ?? 0);
-    scratch = {
-      zr: new Float64Array(k), zi: new Float64Array(k),
-      vr: new Float64Array(k), vi: new Float64Array(k), ir: new Float64Array(k), ii: new Float64Array(k),
-      wr: new Float64Array(m), wi: new Float64Array(m), lr: new Float64Array(m), li: new Float64Array(m),
-    };
+function batchScratch(count: number): BatchScratch {
+  if (!scratch || scratch.vr.length < count) {
+    scratch = { vr: new Float64Array(count), vi: new Float64Array(count), ir: new Float64Array(count), ii: new Float64Array(count) };
   }
   return scratch;
 }
@@ -349,8 +358,6 @@ export class LadderSolver {
   private readonly lr: Float64Array;
   private readonly li: Float64Array;
   private readonly pair = new Float64Array(2);
-  /** 1 where branch b starts with a shunt row (portsBatch). */
-  private readonly shuntBranch: Uint8Array;
 
   constructor(table: LadderTable, values?: ArrayLike<number>) {
     this.table = table;
@@ -377,13 +384,7 @@ export class LadderSolver {
     this.lr = take(b);
     this.li = take(b);
     let last = -1;
-    this.shuntBranch = new Uint8Array(b);
-    for (let k = 0; k < b; k++) {
-      if (table.role[table.branchStart[k]] === SHUNT) {
-        last = k;
-        this.shuntBranch[k] = 1;
-      }
-    }
+    for (let k = 0; k < b; k++) if (table.role[table.branchStart[k]] === SHUNT) last = k;
     this.lastShunt = last;
   }
 
@@ -436,11 +437,14 @@ export class LadderSolver {
 
   /**
    * Port quantities for a unit source at `count` angular frequencies w[k] > 0 (rad/s) in one pass, written to
-   * `out` (see PortBatch). Each loop runs over the frequencies of one ladder row or branch, over typed arrays,
-   * with the arithmetic of fastBackward/fastForward in the same order, so the numbers are bit for bit those of
-   * `solve`. Where that plain pass does not hold (a cancellation, a zero divisor, a value outside the number
-   * range) out.ok[k] is 0 and the caller solves that frequency with `solve`, which takes the general pass or
-   * reports the error. Nothing here throws.
+   * `out` (see PortBatch), by the backward cascade: from a far-end voltage of 1 and no current beyond the last
+   * shunt, each shunt branch adds its current V/Z and each series branch its drop Z·I, back to the source,
+   * whose voltage and current then scale the far end and the source to a unit source. That is the same network
+   * as `solve` solves by loads and a forward pass, with four fewer divisions per frequency for an L-C-load
+   * filter and nothing stored but the running V and I; the two agree to rounding (test/batched-network.test.ts).
+   * Where the plain pass does not hold (a sum that cancels, a zero divisor, a value outside the number range)
+   * out.ok[k] is 0 and the caller solves that frequency with `solve`, which takes the general pass or reports
+   * the error. Nothing here throws.
    */
   portsBatch(w: Float64Array, count: number, source: SourceKind, out: PortBatch): void {
     if (this.lastShunt < 0 || !this.fast) {
@@ -455,60 +459,58 @@ export class LadderSolver {
     const { table, values } = this;
     const last = this.lastShunt;
     const ok = out.ok;
-    for (let k = 0; k < K; k++) ok[o + k] = w[o + k] > 0 ? 1 : 0;
-    // Branches after the last shunt carry nothing, but solve() folds them too (and falls back on a cancellation).
-    const B = table.branches;
-    const sc = batchScratch(K, B);
-    const { zr, zi, wr, wi, lr, li } = sc;
+    const { vr, vi, ir, ii } = batchScratch(K);
+    for (let k = 0; k < K; k++) {
+      ok[o + k] = w[o + k] > 0 ? 1 : 0;
+      vr[k] = 1;
+      vi[k] = 0;
+      ir[k] = 0;
+      ii[k] = 0;
+    }
     const starts = table.branchStart;
+    const kinds = table.kind;
+    const roles = table.role;
     const snapAt = SNAP;
-    for (let b = 0; b < B; b++) {
-      const base = b * K;
-      for (let i = starts[b]; i < starts[b + 1]; i++) {
-        const v = values[i];
-        const kind = table.kind[i];
-        // the element's impedance at every frequency, formed as fastBackward forms it
-        if (kind === R) {
-          zr.fill(v, 0, K);
-          zi.fill(0, 0, K);
-        } else if (kind === L) {
-          for (let k = 0; k < K; k++) {
-            zr[k] = 0;
-            zi[k] = w[o + k] * v;
-          }
-        } else {
-          for (let k = 0; k < K; k++) {
-            zr[k] = 0;
-            zi[k] = -(1 / (w[o + k] * v));
-          }
-        }
-        const role = table.role[i];
-        if (role !== PLUS && role !== ACROSS) {
-          wr.set(zr.subarray(0, K), base);
-          wi.set(zi.subarray(0, K), base);
-          continue;
-        }
-        const across = role === ACROSS;
-        for (let k = 0; k < K; k++) {
-          const a = zr[k], bb = zi[k];
-          const at = base + k;
-          const pr = wr[at], pi = wi[at];
-          const scale = Math.abs(pr) + Math.abs(pi) + Math.abs(a) + Math.abs(bb);
-          let sr = pr + a;
-          let si = pi + bb;
+    // Branches after the last shunt carry no current and drop no voltage: the cascade starts at the last shunt.
+    for (let b = last; b >= 0; b--) {
+      const first = starts[b];
+      const end = starts[b + 1];
+      const shunt = roles[first] === SHUNT;
+      const v0 = values[first];
+      const kind0 = kinds[first];
+      for (let k = 0; k < K; k++) {
+        const wk = w[o + k];
+        // The branch impedance, folded row by row in registers as fastBackward folds it.
+        let zr = kind0 === R ? v0 : 0;
+        let zi = kind0 === L ? wk * v0 : kind0 === C ? -(1 / (wk * v0)) : 0;
+        let folded = true;
+        for (let i = first + 1; i < end; i++) {
+          const v = values[i];
+          const kind = kinds[i];
+          const a = kind === R ? v : 0;
+          const bb = kind === L ? wk * v : kind === C ? -(1 / (wk * v)) : 0;
+          const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(a) + Math.abs(bb);
+          let sr = zr + a;
+          let si = zi + bb;
           if (Math.abs(sr) <= snapAt * scale) sr = 0;
           if (Math.abs(si) <= snapAt * scale) si = 0;
           if (sr === 0 && si === 0) {
-            ok[o + k] = 0;
+            folded = false; // a cancellation: solve() takes this frequency
+            break;
+          }
+          if (roles[i] !== ACROSS) {
+            zr = sr;
+            zi = si;
             continue;
           }
-          if (!across) {
-            wr[at] = sr;
-            wi[at] = si;
-            continue;
-          }
+          // z ∥ a = z·a / (z + a)
           let ur: number, ui: number;
-          if (Math.abs(sr) >= Math.abs(si)) {
+          const d = sr * sr + si * si;
+          if (d > RECIP_MIN && d < RECIP_MAX) {
+            const t = 1 / d;
+            ur = sr * t;
+            ui = -si * t;
+          } else if (Math.abs(sr) >= Math.abs(si)) {
             const q = si / sr, t = 1 / (sr + si * q);
             ur = t;
             ui = -q * t;
@@ -517,133 +519,100 @@ export class LadderSolver {
             ur = q * t;
             ui = -t;
           }
-          const qr = pr * a - pi * bb, qi = pr * bb + pi * a;
-          wr[at] = qr * ur - qi * ui;
-          wi[at] = qr * ui + qi * ur;
+          const qr = zr * a - zi * bb, qi = zr * bb + zi * a;
+          zr = qr * ur - qi * ui;
+          zi = qr * ui + qi * ur;
         }
-      }
-    }
-    const lastEnd = last * K;
-    for (let k = 0; k < K; k++) {
-      lr[lastEnd + k] = wr[lastEnd + k];
-      li[lastEnd + k] = wi[lastEnd + k];
-    }
-    for (let b = last - 1; b >= 0; b--) {
-      const shunt = table.role[starts[b]] === SHUNT;
-      const base = b * K;
-      const next = base + K;
-      for (let k = 0; k < K; k++) {
-        const ar = wr[base + k], ai = wi[base + k];
-        const br = lr[next + k], bi = li[next + k];
-        const scale = Math.abs(ar) + Math.abs(ai) + Math.abs(br) + Math.abs(bi);
-        let sr = ar + br;
-        let si = ai + bi;
-        if (Math.abs(sr) <= snapAt * scale) sr = 0;
-        if (Math.abs(si) <= snapAt * scale) si = 0;
-        if (sr === 0 && si === 0) {
+        if (!folded) {
           ok[o + k] = 0;
           continue;
         }
-        if (!shunt) {
-          lr[base + k] = sr;
-          li[base + k] = si;
-          continue;
-        }
-        let ur: number, ui: number;
-        if (Math.abs(sr) >= Math.abs(si)) {
-          const q = si / sr, t = 1 / (sr + si * q);
-          ur = t;
-          ui = -q * t;
-        } else {
-          const q = sr / si, t = 1 / (sr * q + si);
-          ur = q * t;
-          ui = -t;
-        }
-        const qr = ar * br - ai * bi, qi = ar * bi + ai * br;
-        lr[base + k] = qr * ur - qi * ui;
-        li[base + k] = qr * ui + qi * ur;
-      }
-    }
-    // Forward, one branch at a time over all frequencies (independent iterations: the divisions overlap).
-    const { vr, vi, ir, ii } = sc;
-    const { sRe, sIm, fRe, fIm } = out;
-    if (source === 'current') {
-      for (let k = 0; k < K; k++) {
-        ir[k] = 1;
-        ii[k] = 0;
-        vr[k] = lr[k];
-        vi[k] = li[k];
-        sRe[o + k] = lr[k]; // the source's voltage: the input impedance
-        sIm[o + k] = li[k];
-      }
-    } else {
-      for (let k = 0; k < K; k++) {
-        const l0r = lr[k], l0i = li[k];
-        vr[k] = 1;
-        vi[k] = 0;
-        if (l0r === 0 && l0i === 0) {
-          ok[o + k] = 0;
-          continue;
-        }
-        if (Math.abs(l0r) >= Math.abs(l0i)) {
-          const q = l0i / l0r, t = 1 / (l0r + l0i * q);
-          ir[k] = t;
-          ii[k] = -q * t;
-        } else {
-          const q = l0r / l0i, t = 1 / (l0r * q + l0i);
-          ir[k] = q * t;
-          ii[k] = -t;
-        }
-        sRe[o + k] = ir[k]; // the source's current
-        sIm[o + k] = ii[k];
-      }
-    }
-    const shuntAt = this.shuntBranch;
-    for (let b = 0; b <= last; b++) {
-      const at = b * K;
-      const next = at + K;
-      if (shuntAt[b]) {
-        for (let k = 0; k < K; k++) {
-          // solve() divides by the branch impedance for the branch current: a zero one takes the general pass.
-          if (wr[at + k] === 0 && wi[at + k] === 0) ok[o + k] = 0;
-        }
-        if (b === last) continue;
-        for (let k = 0; k < K; k++) {
-          const nr = lr[next + k], ni = li[next + k];
-          if (nr === 0 && ni === 0) {
+        let xr: number, xi: number, yr: number, yi: number; // the running sum's terms: y += x
+        if (shunt) {
+          // the branch current V/Z joins the current flowing on towards the far end
+          if (zr === 0 && zi === 0) {
             ok[o + k] = 0;
             continue;
           }
           let ur: number, ui: number;
-          if (Math.abs(nr) >= Math.abs(ni)) {
-            const q = ni / nr, t = 1 / (nr + ni * q);
+          const d = zr * zr + zi * zi;
+          if (d > RECIP_MIN && d < RECIP_MAX) {
+            const t = 1 / d;
+            ur = zr * t;
+            ui = -zi * t;
+          } else if (Math.abs(zr) >= Math.abs(zi)) {
+            const q = zi / zr, t = 1 / (zr + zi * q);
             ur = t;
             ui = -q * t;
           } else {
-            const q = nr / ni, t = 1 / (nr * q + ni);
+            const q = zr / zi, t = 1 / (zr * q + zi);
             ur = q * t;
             ui = -t;
           }
-          const xr = vr[k], xi = vi[k];
-          ir[k] = xr * ur - xi * ui;
-          ii[k] = xr * ui + xi * ur;
+          const pr = vr[k], pi = vi[k];
+          xr = pr * ur - pi * ui;
+          xi = pr * ui + pi * ur;
+          yr = ir[k];
+          yi = ii[k];
+        } else {
+          // the series branch drops Z·I on top of the voltage after it
+          const pr = ir[k], pi = ii[k];
+          xr = pr * zr - pi * zi;
+          xi = pr * zi + pi * zr;
+          yr = vr[k];
+          yi = vi[k];
         }
-      } else {
-        for (let k = 0; k < K; k++) {
-          const nr = lr[next + k], ni = li[next + k];
-          const cr = ir[k], ci = ii[k];
-          vr[k] = cr * nr - ci * ni;
-          vi[k] = cr * ni + ci * nr;
+        const scale = Math.abs(xr) + Math.abs(xi) + Math.abs(yr) + Math.abs(yi);
+        let sr = xr + yr;
+        let si = xi + yi;
+        if (Math.abs(sr) <= snapAt * scale) sr = 0;
+        if (Math.abs(si) <= snapAt * scale) si = 0;
+        if (sr === 0 && si === 0) {
+          ok[o + k] = 0; // a resonance through the ladder: the general pass expands around it
+          continue;
+        }
+        if (shunt) {
+          ir[k] = sr;
+          ii[k] = si;
+        } else {
+          vr[k] = sr;
+          vi[k] = si;
         }
       }
     }
+    // At the source: V and I per volt at the far end. A unit voltage source divides by V, a unit current source by I.
+    const { sRe, sIm, fRe, fIm } = out;
+    const current = source === 'current';
     for (let k = 0; k < K; k++) {
       const x = o + k;
-      const pr = sRe[x], pi = sIm[x];
-      const fr = vr[k], fi = vi[k];
-      fRe[x] = fr;
-      fIm[x] = fi;
-      if (!(Math.abs(pr) < Infinity && Math.abs(pi) < Infinity && Math.abs(fr) < Infinity && Math.abs(fi) < Infinity)) ok[x] = 0;
+      const pr = current ? ir[k] : vr[k], pi = current ? ii[k] : vi[k];
+      if (pr === 0 && pi === 0) {
+        ok[x] = 0;
+        continue;
+      }
+      let ur: number, ui: number;
+      const d = pr * pr + pi * pi;
+      if (d > RECIP_MIN && d < RECIP_MAX) {
+        const t = 1 / d;
+        ur = pr * t;
+        ui = -pi * t;
+      } else if (Math.abs(pr) >= Math.abs(pi)) {
+        const q = pi / pr, t = 1 / (pr + pi * q);
+        ur = t;
+        ui = -q * t;
+      } else {
+        const q = pr / pi, t = 1 / (pr * q + pi);
+        ur = q * t;
+        ui = -t;
+      }
+      // the other port quantity: the source current (voltage source) or the source voltage (current source)
+      const qr = current ? vr[k] : ir[k], qi = current ? vi[k] : ii[k];
+      const sr = qr * ur - qi * ui, si = qr * ui + qi * ur;
+      sRe[x] = sr;
+      sIm[x] = si;
+      fRe[x] = ur;
+      fIm[x] = ui;
+      if (!(Math.abs(sr) < Infinity && Math.abs(si) < Infinity && Math.abs(ur) < Infinity && Math.abs(ui) < Infinity)) ok[x] = 0;
     }
   }
 

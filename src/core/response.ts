@@ -1,7 +1,7 @@
 import { HcError, naError, numError, valueError } from './errors';
 import { describeElement, LadderTable } from './ladder';
 import {
-  batchBuffers, describeFrequency, I_UNBOUNDED, LadderSolver, makeSolution, PortBatch, Solution, SourceKind, V_UNBOUNDED,
+  batchBuffers, describeFrequency, I_UNBOUNDED, LadderSolver, makeSolution, PortBatch, scratchSolution, Solution, SourceKind, V_UNBOUNDED,
 } from './network';
 import { makeSpectrum, order, Spectrum } from './spectrum';
 
@@ -132,7 +132,7 @@ export function responseInto(
       out.im[n] = cr * qi + ci * qr;
       continue;
     }
-    sol ??= makeSolution(solver.table); // only for harmonics the batched pass leaves to solve()
+    sol ??= scratchSolution(solver.table); // only for harmonics the batched pass leaves to solve()
     solver.solve(n * spec.f0, source, sol, element >= 0);
     if (element >= 0) {
       const bad = sol.bad[element] & (quantity === 'V' ? V_UNBOUNDED : I_UNBOUNDED);
