@@ -14,6 +14,11 @@ export interface PairOptions {
   sampleMs?: number;
   /** Warm-up calls per side (default: one sample's worth). */
   warmup?: number;
+  /**
+   * Milliseconds each side runs before its sample size is calibrated (default: one sample's). An engine edit
+   * takes thousands of calls to reach its steady speed (the JIT compiles the engine's paths in tiers).
+   */
+  warmMs?: number;
 }
 
 export interface PairResult {
@@ -47,6 +52,13 @@ const gcMinor = (global as { gc?: (o: { type: 'minor' }) => void }).gc;
  * side pays for scavenging what the other side's last sample left behind. (A full collection would also shrink
  * the young generation, slowing the sample that follows.)
  */
+/** Call fn repeatedly for about ms milliseconds (at least once). */
+function warmFor(fn: () => unknown, ms: number): void {
+  const t0 = performance.now();
+  do fn();
+  while (performance.now() - t0 < ms);
+}
+
 function sample(fn: () => unknown, inner: number): number {
   gcMinor?.({ type: 'minor' });
   const t0 = performance.now();
@@ -58,6 +70,12 @@ function sample(fn: () => unknown, inner: number): number {
 export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOptions = {}): PairResult {
   const reps = opts.reps ?? 15;
   const sampleMs = opts.sampleMs ?? 60;
+  // Calibrated after a first warm-up: calls made while the code is still being compiled are many times slower,
+  // and samples sized from them would be too short to average over garbage collection.
+  if (opts.inner === undefined) {
+    warmFor(ours, opts.warmMs ?? sampleMs);
+    warmFor(baseline, opts.warmMs ?? sampleMs);
+  }
   const innerO = opts.inner ?? calibrate(ours, sampleMs);
   const innerB = opts.inner ?? calibrate(baseline, sampleMs);
   const warm = opts.warmup ?? 1;
@@ -76,6 +94,7 @@ export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOpt
       o.push(sample(ours, innerO));
     }
   }
+  if (process.env.BENCH_SAMPLES) console.log(`samples ours ${o.map((x) => x.toFixed(4)).join(' ')}\nsamples base ${b.map((x) => x.toFixed(3)).join(' ')} inner ${innerO}/${innerB}`);
   const oursMs = median(o);
   const baselineMs = median(b);
   return { oursMs, baselineMs, ratio: baselineMs / oursMs };

@@ -308,25 +308,6 @@ function solverMemory(size: number): Float64Array {
   return solverStore;
 }
 
-/** Frequencies per pass of portsBatch: keeps its scratch (4 × 2 kB) in cache. */
-const BATCH = 256;
-
-/** Scratch of portsBatch (the running far-end-side voltage and current per frequency), shared by every solver. */
-interface BatchScratch {
-  vr: Float64Array;
-  vi: Float64Array;
-  ir: Float64Array;
-  ii: Float64Array;
-}
-let scratch: BatchScratch | undefined;
-
-function batchScratch(count: number): BatchScratch {
-  if (!scratch || scratch.vr.length < count) {
-    scratch = { vr: new Float64Array(count), vi: new Float64Array(count), ir: new Float64Array(count), ii: new Float64Array(count) };
-  }
-  return scratch;
-}
-
 /**
  * Evaluates one ladder at one frequency at a time. Construct once per table (it preallocates everything),
  * optionally `setValues` per design case, then call `impedanceAt` / `solve` per frequency, or `portsBatch`
@@ -451,39 +432,36 @@ export class LadderSolver {
       out.ok.fill(0, 0, count);
       return;
     }
-    for (let o = 0; o < count; o += BATCH) this.portsChunk(w, o, Math.min(BATCH, count - o), source, out);
+    this.portsChunk(w, 0, count, source, out);
   }
 
-  /** portsBatch for the frequencies o … o + K − 1 (K ≤ BATCH), through the shared scratch. */
+  /** portsBatch for the frequencies o … o + K − 1. */
   private portsChunk(w: Float64Array, o: number, K: number, source: SourceKind, out: PortBatch): void {
     const { table, values } = this;
     const last = this.lastShunt;
     const ok = out.ok;
-    const { vr, vi, ir, ii } = batchScratch(K);
-    for (let k = 0; k < K; k++) {
-      ok[o + k] = w[o + k] > 0 ? 1 : 0;
-      vr[k] = 1;
-      vi[k] = 0;
-      ir[k] = 0;
-      ii[k] = 0;
-    }
+    const { sRe, sIm, fRe, fIm } = out;
     const starts = table.branchStart;
     const kinds = table.kind;
     const roles = table.role;
     const snapAt = SNAP;
-    // Branches after the last shunt carry no current and drop no voltage: the cascade starts at the last shunt.
-    for (let b = last; b >= 0; b--) {
-      const first = starts[b];
-      const end = starts[b + 1];
-      const shunt = roles[first] === SHUNT;
-      const v0 = values[first];
-      const kind0 = kinds[first];
-      for (let k = 0; k < K; k++) {
-        const wk = w[o + k];
-        // The branch impedance, folded row by row in registers as fastBackward folds it.
+    const current = source === 'current';
+    // Each frequency's cascade runs in registers, branch by branch from the last shunt (branches after it carry
+    // no current and drop no voltage) back to the source; frequencies are independent, so their divisions overlap.
+    for (let k = 0; k < K; k++) {
+      const x = o + k;
+      const wk = w[x];
+      // V and I on the far side of the branch being added, per volt at the far end.
+      let vr = 1, vi = 0, ir = 0, ii = 0;
+      let good = wk > 0;
+      for (let b = last; good && b >= 0; b--) {
+        const first = starts[b];
+        const end = starts[b + 1];
+        // The branch impedance, folded row by row as fastBackward folds it.
+        const v0 = values[first];
+        const kind0 = kinds[first];
         let zr = kind0 === R ? v0 : 0;
         let zi = kind0 === L ? wk * v0 : kind0 === C ? -(1 / (wk * v0)) : 0;
-        let folded = true;
         for (let i = first + 1; i < end; i++) {
           const v = values[i];
           const kind = kinds[i];
@@ -495,7 +473,7 @@ export class LadderSolver {
           if (Math.abs(sr) <= snapAt * scale) sr = 0;
           if (Math.abs(si) <= snapAt * scale) si = 0;
           if (sr === 0 && si === 0) {
-            folded = false; // a cancellation: solve() takes this frequency
+            good = false; // a cancellation: solve() takes this frequency
             break;
           }
           if (roles[i] !== ACROSS) {
@@ -523,16 +501,13 @@ export class LadderSolver {
           zr = qr * ur - qi * ui;
           zi = qr * ui + qi * ur;
         }
-        if (!folded) {
-          ok[o + k] = 0;
-          continue;
-        }
-        let xr: number, xi: number, yr: number, yi: number; // the running sum's terms: y += x
-        if (shunt) {
+        if (!good) break;
+        let xr: number, xi: number, yr: number, yi: number; // the running sum's terms: y + x
+        if (roles[first] === SHUNT) {
           // the branch current V/Z joins the current flowing on towards the far end
           if (zr === 0 && zi === 0) {
-            ok[o + k] = 0;
-            continue;
+            good = false;
+            break;
           }
           let ur: number, ui: number;
           const d = zr * zr + zi * zi;
@@ -549,18 +524,16 @@ export class LadderSolver {
             ur = q * t;
             ui = -t;
           }
-          const pr = vr[k], pi = vi[k];
-          xr = pr * ur - pi * ui;
-          xi = pr * ui + pi * ur;
-          yr = ir[k];
-          yi = ii[k];
+          xr = vr * ur - vi * ui;
+          xi = vr * ui + vi * ur;
+          yr = ir;
+          yi = ii;
         } else {
           // the series branch drops Z·I on top of the voltage after it
-          const pr = ir[k], pi = ii[k];
-          xr = pr * zr - pi * zi;
-          xi = pr * zi + pi * zr;
-          yr = vr[k];
-          yi = vi[k];
+          xr = ir * zr - ii * zi;
+          xi = ir * zi + ii * zr;
+          yr = vr;
+          yi = vi;
         }
         const scale = Math.abs(xr) + Math.abs(xi) + Math.abs(yr) + Math.abs(yi);
         let sr = xr + yr;
@@ -568,25 +541,20 @@ export class LadderSolver {
         if (Math.abs(sr) <= snapAt * scale) sr = 0;
         if (Math.abs(si) <= snapAt * scale) si = 0;
         if (sr === 0 && si === 0) {
-          ok[o + k] = 0; // a resonance through the ladder: the general pass expands around it
-          continue;
+          good = false; // a resonance through the ladder: the general pass expands around it
+          break;
         }
-        if (shunt) {
-          ir[k] = sr;
-          ii[k] = si;
+        if (roles[first] === SHUNT) {
+          ir = sr;
+          ii = si;
         } else {
-          vr[k] = sr;
-          vi[k] = si;
+          vr = sr;
+          vi = si;
         }
       }
-    }
-    // At the source: V and I per volt at the far end. A unit voltage source divides by V, a unit current source by I.
-    const { sRe, sIm, fRe, fIm } = out;
-    const current = source === 'current';
-    for (let k = 0; k < K; k++) {
-      const x = o + k;
-      const pr = current ? ir[k] : vr[k], pi = current ? ii[k] : vi[k];
-      if (pr === 0 && pi === 0) {
+      // At the source: a unit voltage source divides by V, a unit current source by I.
+      const pr = current ? ir : vr, pi = current ? ii : vi;
+      if (!good || (pr === 0 && pi === 0)) {
         ok[x] = 0;
         continue;
       }
@@ -606,13 +574,13 @@ export class LadderSolver {
         ui = -t;
       }
       // the other port quantity: the source current (voltage source) or the source voltage (current source)
-      const qr = current ? vr[k] : ir[k], qi = current ? vi[k] : ii[k];
+      const qr = current ? vr : ir, qi = current ? vi : ii;
       const sr = qr * ur - qi * ui, si = qr * ui + qi * ur;
       sRe[x] = sr;
       sIm[x] = si;
       fRe[x] = ur;
       fIm[x] = ui;
-      if (!(Math.abs(sr) < Infinity && Math.abs(si) < Infinity && Math.abs(ur) < Infinity && Math.abs(ui) < Infinity)) ok[x] = 0;
+      ok[x] = Math.abs(sr) < Infinity && Math.abs(si) < Infinity && Math.abs(ur) < Infinity && Math.abs(ui) < Infinity ? 1 : 0;
     }
   }
 

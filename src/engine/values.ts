@@ -41,7 +41,8 @@ function scalarToPlain(v: unknown): PlainCell {
  * call (=HC.RMS(HC.RESPONSE(…))) is not converted back cell by cell. The rows are the call's own result
  * (also held by the memo), never handed to the engine, which may pad the copies it is given.
  */
-const plainRows = new WeakMap<SimpleRangeValue, PlainCell[][]>();
+const PLAIN = Symbol('plain rows');
+type WithRows = SimpleRangeValue & { [PLAIN]?: PlainCell[][] };
 
 /**
  * Where converted range values are kept between calls: HyperFormula's own per-range cache (the `functionCache`
@@ -70,7 +71,7 @@ export const RANGE_CACHE_KEY = 'HC plain rows';
 export function toPlain(v: unknown, cache?: RangeCache, spectrum = false): Plain {
   if (v instanceof SpectrumRange) return spectrum ? new SpectrumValue(v.spectrum) : v.rows();
   if (v instanceof SimpleRangeValue) {
-    const known = plainRows.get(v);
+    const known = (v as WithRows)[PLAIN];
     if (known) return known;
     if (cache && v.range) {
       const cached = cache.get(v);
@@ -173,7 +174,7 @@ export function fromResult(result: CallResult, copy = true): number | string | b
   if (!Array.isArray(v)) return v;
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');
   const range = SimpleRangeValue.onlyValues(copy ? v.map((row) => row.slice()) : v);
-  plainRows.set(range, v as PlainCell[][]);
+  (range as WithRows)[PLAIN] = v as PlainCell[][];
   // Not marked stable (parse-memo.ts): a nested result is normally read once, and a weak entry for each of
   // 10,000 results per recalculation cost the garbage collector more than the rare second parse it saves.
   return range;

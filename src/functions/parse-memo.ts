@@ -10,23 +10,27 @@
  * Parsed values are shared: the core never writes into a Spectrum or LadderTable it is given (it reads them
  * and builds new ones), and callers must keep it that way. A parse that throws is not stored.
  */
-const stable = new WeakSet<object>();
-const parsed = new WeakMap<object, Map<string, unknown>>();
+/**
+ * The memo of a stable grid lives on the grid itself, under a symbol (non-enumerable, so the grid still reads
+ * and compares as plain rows): it goes when the grid goes, with no weak table for the garbage collector to
+ * sweep (an engine edit makes a new stable grid per changed range, thousands in a session).
+ */
+const MEMO = Symbol('parsed tables');
+type Memo = Map<string, unknown>;
 
 /** Declare a grid stable: it and its rows will never be modified. */
 export function markStable(grid: object): void {
-  stable.add(grid);
+  if (!(MEMO in grid)) Object.defineProperty(grid, MEMO, { value: new Map() as Memo });
 }
 
-export const isStable = (grid: unknown): boolean => typeof grid === 'object' && grid !== null && stable.has(grid);
+export const isStable = (grid: unknown): boolean => typeof grid === 'object' && grid !== null && MEMO in grid;
 
 /** `parse(grid)`, memoised under `kind` when the grid is stable. */
 export function parseOnce<T>(grid: unknown, kind: string, parse: (g: unknown) => T): T {
-  if (typeof grid !== 'object' || grid === null || !stable.has(grid)) return parse(grid);
-  let byKind = parsed.get(grid);
-  if (byKind?.has(kind)) return byKind.get(kind) as T;
+  const memo = typeof grid === 'object' && grid !== null ? ((grid as { [MEMO]?: Memo })[MEMO]) : undefined;
+  if (!memo) return parse(grid);
+  if (memo.has(kind)) return memo.get(kind) as T;
   const value = parse(grid);
-  if (!byKind) parsed.set(grid, (byKind = new Map()));
-  byKind.set(kind, value);
+  memo.set(kind, value);
   return value;
 }
