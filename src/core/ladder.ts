@@ -65,9 +65,23 @@ const KIND_FORMS: Readonly<Record<string, Kind>> = {
 };
 const KIND_HELP = 'R, L or C (or resistor, inductor, capacitor)';
 
-/** A table entry, never an inherited property ("constructor" is not a role). */
-const lookup = <T>(table: Readonly<Record<string, T>>, key: string): T | undefined =>
-  Object.prototype.hasOwnProperty.call(table, key) ? table[key] : undefined;
+/**
+ * The spellings as maps (a Map has no inherited keys: "constructor" is not a role), with the exact spellings
+ * a table usually holds ("series", "L") also under themselves, so that those skip normalising.
+ */
+function spellings<T>(forms: Readonly<Record<string, T>>): Map<string, T> {
+  const m = new Map<string, T>(Object.entries(forms));
+  for (const [k, v] of Object.entries(forms)) if (k.length === 1) m.set(k.toUpperCase(), v);
+  return m;
+}
+const ROLES = spellings(ROLE_FORMS);
+const KINDS = spellings(KIND_FORMS);
+
+/** The code a cell spells, as written or after trimming, lower-casing and collapsing inner spaces. */
+function lookup<T>(forms: Map<string, T>, cell: unknown): T | undefined {
+  if (typeof cell !== 'string') return undefined;
+  return forms.get(cell) ?? forms.get(words(cell));
+}
 
 const isBlank = (v: unknown): boolean => v === null || v === undefined || (typeof v === 'string' && v.trim() === '');
 const words = (v: unknown): string => (typeof v === 'string' ? v.trim().toLowerCase().replace(/\s+/g, ' ') : '');
@@ -118,10 +132,11 @@ export function parseLadder(grid: unknown, what = 'ladder'): LadderTable {
 
   for (let r = 0; r < raw.length; r++) {
     const row = raw[r];
-    if (row.every(isBlank)) continue;
+    // A row with a number for its value is not blank (the common case, checked first).
+    if (typeof row[2] !== 'number' && row.every(isBlank)) continue;
     const where = `${what} row ${r + 1}`;
-    const roleCode = lookup(ROLE_FORMS, words(row[0]));
-    const kindCode = lookup(KIND_FORMS, words(row[1]));
+    const roleCode = lookup(ROLES, row[0]);
+    const kindCode = lookup(KINDS, row[1]);
     if (role.length === 0 && !headerSkipped && roleCode === undefined && kindCode === undefined && typeof row[2] !== 'number') {
       headerSkipped = true;
       continue;
@@ -149,7 +164,10 @@ export function parseLadder(grid: unknown, what = 'ladder'): LadderTable {
     if (roleCode === SERIES || roleCode === SHUNT) starts.push(role.length);
     role.push(roleCode);
     kind.push(kindCode);
-    value.push(parsePartValue(row[2], KIND_LETTER[kindCode], `${where}: value`));
+    // A plain positive number is its own value (what parsePartValue returns for it); text and bad numbers go
+    // through parsePartValue for its reading and its message.
+    const v = row[2];
+    value.push(typeof v === 'number' && v > 0 && v < Infinity ? v : parsePartValue(v, KIND_LETTER[kindCode], `${where}: value`));
     tolerance.push(readTolerance(row[3], where));
     names.push(name);
     sheetRow.push(r + 1);
@@ -159,14 +177,14 @@ export function parseLadder(grid: unknown, what = 'ladder'): LadderTable {
 
   return {
     rows: role.length,
-    role: Int8Array.from(role),
-    kind: Int8Array.from(kind),
-    value: Float64Array.from(value),
-    tolerance: Float64Array.from(tolerance),
+    role: new Int8Array(role),
+    kind: new Int8Array(kind),
+    value: new Float64Array(value),
+    tolerance: new Float64Array(tolerance),
     names,
-    branchStart: Int32Array.from(starts),
+    branchStart: new Int32Array(starts),
     branches: starts.length - 1,
-    sheetRow: Int32Array.from(sheetRow),
+    sheetRow: new Int32Array(sheetRow),
   };
 }
 

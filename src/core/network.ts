@@ -308,6 +308,14 @@ function solverMemory(size: number): Float64Array {
   return solverStore;
 }
 
+let yScratch = new Float64Array(16);
+
+/** Scratch for portsChunk's per-branch constant admittances, grown as needed. */
+function constantAdmittances(branches: number): Float64Array {
+  if (yScratch.length < branches) yScratch = new Float64Array(Math.max(branches, 2 * yScratch.length));
+  return yScratch;
+}
+
 /**
  * Evaluates one ladder at one frequency at a time. Construct once per table (it preallocates everything),
  * optionally `setValues` per design case, then call `impedanceAt` / `solve` per frequency, or `portsBatch`
@@ -446,6 +454,12 @@ export class LadderSolver {
     const roles = table.role;
     const snapAt = SNAP;
     const current = source === 'current';
+    // A shunt branch of one resistor (a load, a damping resistor) has the same admittance at every frequency.
+    const yConst = constantAdmittances(this.lastShunt + 1);
+    for (let b = 0; b <= last; b++) {
+      const first = starts[b];
+      yConst[b] = roles[first] === SHUNT && kinds[first] === R && starts[b + 1] === first + 1 ? 1 / values[first] : 0;
+    }
     // Each frequency's cascade runs in registers, branch by branch from the last shunt (branches after it carry
     // no current and drop no voltage) back to the source; frequencies are independent, so their divisions overlap.
     for (let k = 0; k < K; k++) {
@@ -457,6 +471,23 @@ export class LadderSolver {
       for (let b = last; good && b >= 0; b--) {
         const first = starts[b];
         const end = starts[b + 1];
+        const yc = yConst[b];
+        if (yc !== 0) {
+          // I += V·(1/R)
+          const xr = vr * yc, xi = vi * yc;
+          const scale = Math.abs(xr) + Math.abs(xi) + Math.abs(ir) + Math.abs(ii);
+          let sr = xr + ir;
+          let si = xi + ii;
+          if (Math.abs(sr) <= snapAt * scale) sr = 0;
+          if (Math.abs(si) <= snapAt * scale) si = 0;
+          if (sr === 0 && si === 0) {
+            good = false;
+            break;
+          }
+          ir = sr;
+          ii = si;
+          continue;
+        }
         // The branch impedance, folded row by row as fastBackward folds it.
         const v0 = values[first];
         const kind0 = kinds[first];
