@@ -7,7 +7,7 @@
  * floating-point operations (+, −, ×, ÷ each one flop; comparisons and |x| not counted) divided by 8.
  * ratio = baseline time / ours = the kernel's CMA rate / the plain loop's CMA rate.
  */
-import { ACROSS, LadderTable, L, C, PLUS, SHUNT } from '../../src/core/ladder';
+import { ACROSS, LadderTable, L, C, R, SHUNT } from '../../src/core/ladder';
 import { LadderSolver, makePortBatch } from '../../src/core/network';
 import { consume, LADDER } from '../fixtures';
 import { benchLine, pair } from '../timing';
@@ -16,23 +16,32 @@ const FREQS = 2000;
 
 /**
  * Flops per frequency of portsBatch (its backward cascade; see network.ts), for the branches up to the last
- * shunt, which are all it evaluates: element impedance L 1 (ω·v), C 2 (ω·v, 1/x), R 0; a `+` fold is a snapped
- * complex sum, 7 (3 additions for the scale, 2 for the sum, 2 multiplications for the thresholds); a `||` fold
- * 25 (sum 7, reciprocal 6, two complex products 12); a reciprocal is 6 (|z|² 3, 1/x, two products). Then per
- * branch, backwards: a shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped sum 7); a series branch adds
- * Z·I to V, 13 (product 6, snapped sum 7); at the source one reciprocal and one product, 12.
+ * shunt, which are all it evaluates. Element impedance: L 1 (ω·v), C 2 (ω·v, 1/x), R 0. A `+` resistor is one
+ * addition (a passive real part cannot cancel); a `+` reactance a snapped sum, 5 (2 additions for the scale,
+ * 1 for the sum, 2 multiplications for the thresholds); a `||` fold 25 (snapped complex sum 7, reciprocal 6,
+ * two complex products 12). A reciprocal is 6 (|z|² 3, 1/x, two products). Then per branch, backwards: a
+ * shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped complex sum 7), or 9 for a shunt of one resistor
+ * (V·(1/R): 2, the sum 7; 1/R is formed once per call); a series branch adds Z·I to V, 13 (product 6, snapped
+ * sum 7); at the source one reciprocal and one product, 12.
  */
 export function kernelFlops(t: LadderTable): number {
   let last = -1;
   for (let b = 0; b < t.branches; b++) if (t.role[t.branchStart[b]] === SHUNT) last = b;
+  const impedance = (i: number): number => (t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0);
   let flops = 12;
   for (let b = 0; b <= last; b++) {
-    for (let i = t.branchStart[b]; i < t.branchStart[b + 1]; i++) {
-      flops += t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0;
-      if (t.role[i] === PLUS) flops += 7;
-      if (t.role[i] === ACROSS) flops += 25;
+    const first = t.branchStart[b];
+    const end = t.branchStart[b + 1];
+    if (t.role[first] === SHUNT && t.kind[first] === R && end === first + 1) {
+      flops += 9;
+      continue;
     }
-    flops += t.role[t.branchStart[b]] === SHUNT ? 19 : 13;
+    flops += impedance(first);
+    for (let i = first + 1; i < end; i++) {
+      if (t.role[i] === ACROSS) flops += impedance(i) + 25;
+      else flops += t.kind[i] === R ? 1 : impedance(i) + 5;
+    }
+    flops += t.role[first] === SHUNT ? 19 : 13;
   }
   return flops;
 }

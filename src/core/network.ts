@@ -496,6 +496,26 @@ export class LadderSolver {
         for (let i = first + 1; i < end; i++) {
           const v = values[i];
           const kind = kinds[i];
+          const across = roles[i] === ACROSS;
+          if (!across) {
+            // A passive branch's real part is ≥ 0 (to rounding), so adding a resistor cannot cancel the sum:
+            // it is added as it is. Adding a reactance is snapped as csum snaps it (a loss-free resonance).
+            if (kind === R) {
+              zr += v;
+              continue;
+            }
+            const x = kind === L ? wk * v : -(1 / (wk * v));
+            const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(x);
+            let si = zi + x;
+            if (Math.abs(zr) <= snapAt * scale) zr = 0;
+            if (Math.abs(si) <= snapAt * scale) si = 0;
+            if (zr === 0 && si === 0) {
+              good = false; // a cancellation: solve() takes this frequency
+              break;
+            }
+            zi = si;
+            continue;
+          }
           const a = kind === R ? v : 0;
           const bb = kind === L ? wk * v : kind === C ? -(1 / (wk * v)) : 0;
           const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(a) + Math.abs(bb);
@@ -506,11 +526,6 @@ export class LadderSolver {
           if (sr === 0 && si === 0) {
             good = false; // a cancellation: solve() takes this frequency
             break;
-          }
-          if (roles[i] !== ACROSS) {
-            zr = sr;
-            zi = si;
-            continue;
           }
           // z ∥ a = z·a / (z + a)
           let ur: number, ui: number;
