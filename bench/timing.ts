@@ -33,41 +33,51 @@ export function median(xs: number[]): number {
   return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
-/** Calls per sample so that one sample takes about `sampleMs` (at least 1). */
-function calibrate(fn: () => unknown, sampleMs: number): number {
-  let n = 1;
-  for (;;) {
+/**
+ * A side of a comparison: makes `n` calls and returns the milliseconds they took. Local functions are wrapped
+ * by `local`; a side in a worker thread (sheet-worker.ts) times itself.
+ */
+export type Runner = (n: number) => number;
+
+const gcMinor = (global as { gc?: (o: { type: 'minor' }) => void }).gc;
+
+/**
+ * A local function as a Runner. With --expose-gc (npm run bench) the young generation is emptied before each
+ * sample, untimed, so that neither side pays for scavenging what the other side's last sample left behind. (A
+ * full collection would also shrink the young generation, slowing the sample that follows.)
+ */
+export function local(fn: () => unknown): Runner {
+  return (n: number): number => {
+    gcMinor?.({ type: 'minor' });
     const t0 = performance.now();
     for (let i = 0; i < n; i++) fn();
-    const dt = performance.now() - t0;
+    return performance.now() - t0;
+  };
+}
+
+/** Calls per sample so that one sample takes about `sampleMs` (at least 1). */
+function calibrate(run: Runner, sampleMs: number): number {
+  let n = 1;
+  for (;;) {
+    const dt = run(n);
     if (dt >= sampleMs / 4 || n >= 1 << 20) return Math.max(1, Math.round((n * sampleMs) / Math.max(dt, 1e-3)));
     n *= 4;
   }
 }
 
-const gcMinor = (global as { gc?: (o: { type: 'minor' }) => void }).gc;
-
-/**
- * One sample. With --expose-gc (npm run bench) the young generation is emptied first, untimed, so that neither
- * side pays for scavenging what the other side's last sample left behind. (A full collection would also shrink
- * the young generation, slowing the sample that follows.)
- */
-/** Call fn repeatedly for about ms milliseconds (at least once). */
-function warmFor(fn: () => unknown, ms: number): void {
-  const t0 = performance.now();
-  do fn();
-  while (performance.now() - t0 < ms);
-}
-
-function sample(fn: () => unknown, inner: number): number {
-  gcMinor?.({ type: 'minor' });
-  const t0 = performance.now();
-  for (let i = 0; i < inner; i++) fn();
-  return (performance.now() - t0) / inner;
+/** Run for about ms milliseconds (at least one call). */
+function warmFor(run: Runner, ms: number): void {
+  let spent = 0;
+  for (let n = 1; spent < ms; n = Math.min(2 * n, 1 << 16)) spent += run(n);
 }
 
 /** Median ms per call of `ours` and `baseline`, interleaved; ratio = baseline / ours (higher is better). */
 export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOptions = {}): PairResult {
+  return pairRunners(local(ours), local(baseline), opts);
+}
+
+/** pair() for two Runners. */
+export function pairRunners(ours: Runner, baseline: Runner, opts: PairOptions = {}): PairResult {
   const reps = opts.reps ?? 15;
   const sampleMs = opts.sampleMs ?? 60;
   // Calibrated after a first warm-up: calls made while the code is still being compiled are many times slower,
@@ -78,6 +88,7 @@ export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOpt
   }
   const innerO = opts.inner ?? calibrate(ours, sampleMs);
   const innerB = opts.inner ?? calibrate(baseline, sampleMs);
+  const sample = (run: Runner, inner: number): number => run(inner) / inner;
   const warm = opts.warmup ?? 1;
   for (let w = 0; w < warm; w++) {
     sample(ours, innerO);
@@ -94,7 +105,10 @@ export function pair(ours: () => unknown, baseline: () => unknown, opts: PairOpt
       o.push(sample(ours, innerO));
     }
   }
-  if (process.env.BENCH_SAMPLES) console.log(`samples ours ${o.map((x) => x.toFixed(4)).join(' ')}\nsamples base ${b.map((x) => x.toFixed(3)).join(' ')} inner ${innerO}/${innerB}`);
+  if (process.env.BENCH_SAMPLES) {
+    const show = (xs: number[]): string => xs.map((x) => x.toPrecision(3)).join(' ');
+    console.log(`INFO samples ours ${show(o)} | baseline ${show(b)} | calls per sample ${innerO} / ${innerB}`);
+  }
   const oursMs = median(o);
   const baselineMs = median(b);
   return { oursMs, baselineMs, ratio: baselineMs / oursMs };

@@ -3,13 +3,14 @@
  * spreadsheet's own complex-number functions — one cell per harmonic and element (COMPLEX, IMSUM, IMPRODUCT,
  * IMDIV, IMABS) — against one cell =HC.RMS(HC.RESPONSE(spectrum, ladder)), both in the headless engine.
  * Timed: the recalculation after the load resistor's value changes (every cell of either sheet depends on it).
+ * Each sheet is in its own engine in its own worker thread (sheet-worker.ts), which times its own edits.
  */
-import { HyperFormula, RawCellContent } from 'hyperformula';
-import { createEngine } from '../../src/engine';
+import { RawCellContent, SimpleCellAddress } from 'hyperformula';
 import { a1 } from '../../src/engine/cells';
 import { ACROSS, C, L, PLUS, SHUNT } from '../../src/core/ladder';
-import { consume, LADDER, LADDER_ROWS, sourceTable } from '../fixtures';
-import { benchLine, pair } from '../timing';
+import { LADDER, LADDER_ROWS, sourceTable } from '../fixtures';
+import { benchLine, pairRunners } from '../timing';
+import { startSheet } from '../sheet-worker';
 
 const HARMONICS = 200;
 const SPEC_TOP = 9; // 0-based row of the spectrum table's DC row
@@ -92,7 +93,7 @@ export function oursSheet(): { rows: RawCellContent[][]; result: string } {
   return { rows, result: 'G1' };
 }
 
-const cellAt = (hf: HyperFormula, ref: string) => {
+const cellAt = (ref: string): SimpleCellAddress => {
   const m = /^([A-Z]+)(\d+)$/.exec(ref)!;
   let c = 0;
   for (const ch of m[1]) c = c * 26 + ch.charCodeAt(0) - 64;
@@ -103,27 +104,28 @@ export function runBuiltin(log: (s: string) => void): void {
   const b = builtinSheet();
   const o = oursSheet();
   const formulas = b.rows.reduce((k, r) => k + r.filter((c) => typeof c === 'string' && c.startsWith('=')).length, 0);
-  const hb = createEngine({ Sheet1: b.rows });
-  const ho = createEngine({ Sheet1: o.rows });
-  const rb = cellAt(hb, b.result), ro = cellAt(ho, o.result);
-  const load = { sheet: 0, row: LOAD_ROW, col: 2 };
+  const edit = { sheet: 0, row: LOAD_ROW, col: 2 };
   const base = LADDER.value[LADDER.rows - 1];
+  // Each sheet in an engine and a heap of its own (sheet-worker.ts), as each would be in its own workbook.
+  const sb = startSheet({ rows: b.rows, edit, base, result: cellAt(b.result) });
+  const so = startSheet({ rows: o.rows, edit, base, result: cellAt(o.result) });
+  // A new value at each edit, so that no cached result can answer (the engine memoises recent calls).
   let kb = 0, ko = 0;
-  // A new value each time, so that no cached result can answer (the engine memoises recent calls).
-  const step = (hf: HyperFormula, k: number): void => {
-    hf.setCellContents(load, [[base * (1 + 1e-6 * (k % 100000))]]);
+  const check = (k: number): [number, number] => {
+    sb.run(1, k);
+    so.run(1, k);
+    return [sb.value(), so.value()];
   };
-  const check = (): [number, number] => [hb.getCellValue(rb) as number, ho.getCellValue(ro) as number];
-  const [vb, vo] = check();
+  const [vb, vo] = check(0);
   log(`INFO builtin cells=${formulas} rms builtin=${vb} ours=${vo} rel_diff=${(Math.abs(vb - vo) / vo).toExponential(2)}`);
-  const r = pair(
-    () => { step(ho, ++ko); consume(ho.getCellValue(ro) as number); },
-    () => { step(hb, ++kb); consume(hb.getCellValue(rb) as number); },
-    { reps: 11, warmMs: 2000 },
+  const r = pairRunners(
+    (n) => so.run(n, (ko += n) - n + 1),
+    (n) => sb.run(n, (kb += n) - n + 1),
+    { reps: 15, warmMs: 3000 },
   );
-  step(hb, 4242);
-  step(ho, 4242);
-  const [vb2, vo2] = check();
+  const [vb2, vo2] = check(4242);
+  sb.stop();
+  so.stop();
   log(`INFO builtin after edits rms builtin=${vb2} ours=${vo2} rel_diff=${(Math.abs(vb2 - vo2) / vo2).toExponential(2)}`);
   log(benchLine('builtin', r));
 }
