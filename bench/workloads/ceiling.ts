@@ -21,8 +21,9 @@ const FREQS = 2000;
  * 1 for the sum, 2 multiplications for the thresholds); a `||` fold 25 (snapped complex sum 7, reciprocal 6,
  * two complex products 12). A reciprocal is 6 (|z|² 3, 1/x, two products). Then per branch, backwards: a
  * shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped complex sum 7), or 9 for a shunt of one resistor
- * (V·(1/R): 2, the sum 7; 1/R is formed once per call); a series branch adds Z·I to V, 13 (product 6, snapped
- * sum 7); at the source one reciprocal and one product, 12.
+ * (V·(1/R): 2, the sum 7; 1/R is formed once per call); the last shunt, where the cascade starts from V = 1
+ * and I = 0, only the reciprocal, 6 (0 for one resistor); a series branch adds Z·I to V, 13 (product 6,
+ * snapped sum 7); at the source one reciprocal and one product, 12.
  */
 export function kernelFlops(t: LadderTable): number {
   let last = -1;
@@ -33,7 +34,7 @@ export function kernelFlops(t: LadderTable): number {
     const first = t.branchStart[b];
     const end = t.branchStart[b + 1];
     if (t.role[first] === SHUNT && t.kind[first] === R && end === first + 1) {
-      flops += 9;
+      flops += b === last ? 0 : 9; // at the far end I is just 1/R
       continue;
     }
     flops += impedance(first);
@@ -41,7 +42,7 @@ export function kernelFlops(t: LadderTable): number {
       if (t.role[i] === ACROSS) flops += impedance(i) + 25;
       else flops += t.kind[i] === R ? 1 : impedance(i) + 5;
     }
-    flops += t.role[first] === SHUNT ? 19 : 13;
+    flops += t.role[first] === SHUNT ? (b === last ? 6 : 19) : 13; // at the far end I is just 1/Z
   }
   return flops;
 }

@@ -472,6 +472,11 @@ export class LadderSolver {
         const first = starts[b];
         const end = starts[b + 1];
         const yc = yConst[b];
+        if (b === last && yc !== 0) {
+          // the first step from the far end: V = 1 and no current yet, so I = 1/R
+          ir = yc;
+          continue;
+        }
         if (yc !== 0) {
           // I += V·(1/R)
           const xr = vr * yc, xi = vi * yc;
@@ -569,6 +574,12 @@ export class LadderSolver {
             const q = zr / zi, t = 1 / (zr * q + zi);
             ur = q * t;
             ui = -t;
+          }
+          if (b === last) {
+            // the first step from the far end: V = 1 and no current yet, so I = 1/Z
+            ir = ur;
+            ii = ui;
+            continue;
           }
           xr = vr * ur - vi * ui;
           xi = vr * ui + vi * ur;
