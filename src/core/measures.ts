@@ -36,11 +36,9 @@ function pow2Above(x: number): number {
 function scaledSquares(s: Spectrum, from: number, to: number, scale: number, w: number): number {
   let sum = 0;
   let comp = 0;
-  // scale is a power of two, so is 1/scale (2^-1023 at least, exact as a subnormal): x·(1/scale) is x/scale.
-  const inv = 1 / scale;
   for (let n = from; n <= to; n++) {
-    const a = s.re[n] * inv;
-    const b = n === 0 ? 0 : s.im[n] * inv;
+    const a = s.re[n] / scale;
+    const b = n === 0 ? 0 : s.im[n] / scale;
     const t = (n === 0 ? 1 : w) * (a * a + b * b);
     const u = sum + t;
     comp += abs(sum) >= t ? sum - u + t : t - u + sum;
