@@ -15,6 +15,12 @@ export interface PairOptions {
   /** Warm-up calls per side (default: one sample's worth). */
   warmup?: number;
   /**
+   * Idle milliseconds before each sample (default 0): background work one side leaves behind (concurrent
+   * marking and sweeping of its heap, on the process's shared helper threads) then ends before the other
+   * side's sample instead of competing with it for the CPU.
+   */
+  gapMs?: number;
+  /**
    * Milliseconds each side runs before its sample size is calibrated (default: one sample's). An engine edit
    * takes thousands of calls to reach its steady speed (the JIT compiles the engine's paths in tiers).
    */
@@ -88,7 +94,11 @@ export function pairRunners(ours: Runner, baseline: Runner, opts: PairOptions = 
   }
   const innerO = opts.inner ?? calibrate(ours, sampleMs);
   const innerB = opts.inner ?? calibrate(baseline, sampleMs);
-  const sample = (run: Runner, inner: number): number => run(inner) / inner;
+  const idle = new Int32Array(new SharedArrayBuffer(4));
+  const sample = (run: Runner, inner: number): number => {
+    if (opts.gapMs) Atomics.wait(idle, 0, 0, opts.gapMs);
+    return run(inner) / inner;
+  };
   const warm = opts.warmup ?? 1;
   for (let w = 0; w < warm; w++) {
     sample(ours, innerO);

@@ -121,7 +121,7 @@ export function runBuiltin(log: (s: string) => void): void {
   const r = pairRunners(
     (n) => so.run(n, (ko += n) - n + 1),
     (n) => sb.run(n, (kb += n) - n + 1),
-    { reps: 15, warmMs: 3000 },
+    { reps: 15, warmMs: 3000, gapMs: 100 },
   );
   const [vb2, vo2] = check(4242);
   sb.stop();

@@ -443,7 +443,10 @@ export class LadderSolver {
     this.portsChunk(w, 0, count, source, out);
   }
 
-  /** portsBatch for the frequencies o … o + K − 1. */
+  /**
+   * portsBatch for the frequencies o … o + K − 1. The reciprocals are written out where they are used rather
+   * than calling crecip: through its shared OUT array the kernel measured about 45 % slower.
+   */
   private portsChunk(w: Float64Array, o: number, K: number, source: SourceKind, out: PortBatch): void {
     const { table, values } = this;
     const last = this.lastShunt;
