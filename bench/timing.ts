@@ -71,10 +71,20 @@ function calibrate(run: Runner, sampleMs: number): number {
   }
 }
 
-/** Run for about ms milliseconds (at least one call). */
-function warmFor(run: Runner, ms: number): void {
-  let spent = 0;
-  for (let n = 1; spent < ms; n = Math.min(2 * n, 1 << 16)) spent += run(n);
+/**
+ * Run both sides for about ms milliseconds each, alternating runs of up to about `slice` ms, so that neither
+ * sits idle for long meanwhile (an idle V8 heap gets shrunk, and the side then starts its samples slowly).
+ */
+function warmBoth(a: Runner, b: Runner, ms: number, slice: number): void {
+  const state = [a, b].map((run) => ({ run, spent: 0, n: 1 }));
+  while (state.some((x) => x.spent < ms)) {
+    for (const x of state) {
+      if (x.spent >= ms) continue;
+      const dt = x.run(x.n);
+      x.spent += dt;
+      if (dt < slice / 2) x.n = Math.min(2 * x.n, 1 << 20);
+    }
+  }
 }
 
 /** Median ms per call of `ours` and `baseline`, interleaved; ratio = baseline / ours (higher is better). */
@@ -88,10 +98,7 @@ export function pairRunners(ours: Runner, baseline: Runner, opts: PairOptions = 
   const sampleMs = opts.sampleMs ?? 60;
   // Calibrated after a first warm-up: calls made while the code is still being compiled are many times slower,
   // and samples sized from them would be too short to average over garbage collection.
-  if (opts.inner === undefined) {
-    warmFor(ours, opts.warmMs ?? sampleMs);
-    warmFor(baseline, opts.warmMs ?? sampleMs);
-  }
+  if (opts.inner === undefined) warmBoth(ours, baseline, opts.warmMs ?? sampleMs, sampleMs);
   const innerO = opts.inner ?? calibrate(ours, sampleMs);
   const innerB = opts.inner ?? calibrate(baseline, sampleMs);
   const idle = new Int32Array(new SharedArrayBuffer(4));
