@@ -175,8 +175,8 @@ export function fromResult(result: CallResult, copy = true): number | string | b
   if (v.length === 0 || v[0].length === 0) return new CellError(ErrorType.VALUE, 'The result is empty.');
   const range = SimpleRangeValue.onlyValues(copy ? v.map((row) => row.slice()) : v);
   (range as WithRows)[PLAIN] = v as PlainCell[][];
-  // Not marked stable (parse-memo.ts): a nested result is normally read once, and a weak entry for each of
-  // 10,000 results per recalculation cost the garbage collector more than the rare second parse it saves.
+  // Not marked stable (parse-memo.ts): a nested result is normally read once, so a parse memo per result
+  // would cost more than the rare second parse it saves.
   return range;
 }
 
