@@ -16,20 +16,21 @@ const FREQS = 2000;
 
 /**
  * Flops per frequency of portsBatch (its backward cascade; see network.ts), for the branches up to the last
- * shunt, which are all it evaluates. Element impedance: L 1 (ω·v), C 2 (ω·v, 1/x), R 0. A `+` resistor is one
- * addition (a passive real part cannot cancel); a `+` reactance a snapped sum, 5 (2 additions for the scale,
- * 1 for the sum, 2 multiplications for the thresholds); a `||` fold 25 (snapped complex sum 7, reciprocal 6,
- * two complex products 12). A reciprocal is 6 (|z|² 3, 1/x, two products). Then per branch, backwards: a
- * shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped complex sum 7), or 9 for a shunt of one resistor
- * (V·(1/R): 2, the sum 7; 1/R is formed once per call); the last shunt, where the cascade starts from V = 1
- * and I = 0, only the reciprocal, 6 (0 for one resistor); a series branch adds Z·I to V, 13 (product 6,
- * snapped sum 7); at the source one reciprocal and one product, 12.
+ * shunt, which are all it evaluates; + − × ÷ one each. 1/ω once per frequency. A branch of series elements only
+ * is R + j(ω·L − S/ω) from sums formed once per call: 7 (ω·L, S·(1/ω), the difference, 2 additions for the
+ * scale, 2 multiplications for the snap thresholds). A branch with a `||` row is folded row by row: element
+ * impedance L 1 (ω·v), C 2 (ω·v, 1/x), R 0; a `+` resistor 1; a `+` reactance 5 (scale 2, sum 1, thresholds 2);
+ * a `||` fold 25 (snapped complex sum 7, reciprocal 6, two complex products 12). A reciprocal is 6 (|z|² 3,
+ * 1/x, two products). Then per branch, backwards: a shunt adds V/Z to I, 19 (reciprocal 6, product 6, snapped
+ * complex sum 7), or 9 for a shunt of one resistor (V·(1/R): 2, the sum 7; 1/R is formed once per call); the
+ * last shunt, where the cascade starts from V = 1 and I = 0, only the reciprocal, 6 (0 for one resistor); a
+ * series branch adds Z·I to V, 13 (product 6, snapped sum 7); at the source one reciprocal and one product, 12.
  */
 export function kernelFlops(t: LadderTable): number {
   let last = -1;
   for (let b = 0; b < t.branches; b++) if (t.role[t.branchStart[b]] === SHUNT) last = b;
   const impedance = (i: number): number => (t.kind[i] === L ? 1 : t.kind[i] === C ? 2 : 0);
-  let flops = 12;
+  let flops = 12 + 1;
   for (let b = 0; b <= last; b++) {
     const first = t.branchStart[b];
     const end = t.branchStart[b + 1];
@@ -37,10 +38,15 @@ export function kernelFlops(t: LadderTable): number {
       flops += b === last ? 0 : 9; // at the far end I is just 1/R
       continue;
     }
-    flops += impedance(first);
-    for (let i = first + 1; i < end; i++) {
-      if (t.role[i] === ACROSS) flops += impedance(i) + 25;
-      else flops += t.kind[i] === R ? 1 : impedance(i) + 5;
+    let across = false;
+    for (let i = first + 1; i < end; i++) if (t.role[i] === ACROSS) across = true;
+    if (!across) flops += 7;
+    else {
+      flops += impedance(first);
+      for (let i = first + 1; i < end; i++) {
+        if (t.role[i] === ACROSS) flops += impedance(i) + 25;
+        else flops += t.kind[i] === R ? 1 : impedance(i) + 5;
+      }
     }
     flops += t.role[first] === SHUNT ? (b === last ? 6 : 19) : 13; // at the far end I is just 1/Z
   }

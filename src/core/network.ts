@@ -308,12 +308,15 @@ function solverMemory(size: number): Float64Array {
   return solverStore;
 }
 
-let yScratch = new Float64Array(16);
+let constants = { yConst: new Float64Array(16), lumped: new Float64Array(48) };
 
-/** Scratch for portsChunk's per-branch constant admittances, grown as needed. */
-function constantAdmittances(branches: number): Float64Array {
-  if (yScratch.length < branches) yScratch = new Float64Array(Math.max(branches, 2 * yScratch.length));
-  return yScratch;
+/** Scratch for portsChunk's per-branch constants, grown as needed. */
+function branchConstants(branches: number): { yConst: Float64Array; lumped: Float64Array } {
+  if (constants.yConst.length < branches) {
+    const n = Math.max(branches, 2 * constants.yConst.length);
+    constants = { yConst: new Float64Array(n), lumped: new Float64Array(3 * n) };
+  }
+  return constants;
 }
 
 /**
@@ -429,8 +432,9 @@ export class LadderSolver {
    * `out` (see PortBatch), by the backward cascade: from a far-end voltage of 1 and no current beyond the last
    * shunt, each shunt branch adds its current V/Z and each series branch its drop Z·I, back to the source,
    * whose voltage and current then scale the far end and the source to a unit source. That is the same network
-   * as `solve` solves by loads and a forward pass, with four fewer divisions per frequency for an L-C-load
-   * filter and nothing stored but the running V and I; the two agree to rounding (test/batched-network.test.ts).
+   * as `solve` solves by loads and a forward pass, with fewer divisions (three per frequency for an L-C-load
+   * filter against seven) and nothing stored but the running V and I; the two agree to rounding
+   * (test/batched-network.test.ts).
    * Where the plain pass does not hold (a sum that cancels, a zero divisor, a value outside the number range)
    * out.ok[k] is 0 and the caller solves that frequency with `solve`, which takes the general pass or reports
    * the error. Nothing here throws.
@@ -458,10 +462,27 @@ export class LadderSolver {
     const snapAt = SNAP;
     const current = source === 'current';
     // A shunt branch of one resistor (a load, a damping resistor) has the same admittance at every frequency.
-    const yConst = constantAdmittances(this.lastShunt + 1);
+    // A branch of elements in series only (no ||) is R + j(ω·L − S/ω) with its R, L and S = Σ 1/C summed once
+    // per call: lumped[3b … 3b + 2], or NaN in lumped[3b] for a branch with a || row (folded row by row).
+    const { yConst, lumped } = branchConstants(last + 1);
     for (let b = 0; b <= last; b++) {
       const first = starts[b];
-      yConst[b] = roles[first] === SHUNT && kinds[first] === R && starts[b + 1] === first + 1 ? 1 / values[first] : 0;
+      const end = starts[b + 1];
+      yConst[b] = roles[first] === SHUNT && kinds[first] === R && end === first + 1 ? 1 / values[first] : 0;
+      let rs = 0, ls = 0, ss = 0;
+      for (let i = first; i < end; i++) {
+        if (i > first && roles[i] === ACROSS) {
+          rs = NaN;
+          break;
+        }
+        const v = values[i];
+        if (kinds[i] === R) rs += v;
+        else if (kinds[i] === L) ls += v;
+        else ss += 1 / v;
+      }
+      lumped[3 * b] = rs;
+      lumped[3 * b + 1] = ls;
+      lumped[3 * b + 2] = ss;
     }
     // Each frequency's cascade runs in registers, branch by branch from the last shunt (branches after it carry
     // no current and drop no voltage) back to the source; frequencies are independent, so their divisions overlap.
@@ -471,6 +492,7 @@ export class LadderSolver {
       // V and I on the far side of the branch being added, per volt at the far end.
       let vr = 1, vi = 0, ir = 0, ii = 0;
       let good = wk > 0;
+      const invW = 1 / wk;
       for (let b = last; good && b >= 0; b--) {
         const first = starts[b];
         const end = starts[b + 1];
@@ -496,64 +518,80 @@ export class LadderSolver {
           ii = si;
           continue;
         }
-        // The branch impedance, folded row by row as fastBackward folds it.
-        const v0 = values[first];
-        const kind0 = kinds[first];
-        let zr = kind0 === R ? v0 : 0;
-        let zi = kind0 === L ? wk * v0 : kind0 === C ? -(1 / (wk * v0)) : 0;
-        for (let i = first + 1; i < end; i++) {
-          const v = values[i];
-          const kind = kinds[i];
-          const across = roles[i] === ACROSS;
-          if (!across) {
-            // A passive branch's real part is ≥ 0 (to rounding), so adding a resistor cannot cancel the sum:
-            // it is added as it is. Adding a reactance is snapped as csum snaps it (a loss-free resonance).
-            if (kind === R) {
-              zr += v;
+        let zr: number, zi: number;
+        const rs = lumped[3 * b];
+        if (rs === rs) {
+          // series elements only: R + j(ω·L − S/ω); a passive real part cannot cancel, the reactances can
+          const xl = wk * lumped[3 * b + 1], xc = invW * lumped[3 * b + 2];
+          const scale = rs + xl + xc;
+          zr = rs;
+          zi = xl - xc;
+          if (rs <= snapAt * scale) zr = 0;
+          if (Math.abs(zi) <= snapAt * scale) zi = 0;
+          if (zr === 0 && zi === 0) {
+            good = false; // a loss-free series resonance: solve() takes this frequency
+            break;
+          }
+        } else {
+          // The branch impedance, folded row by row as fastBackward folds it.
+          const v0 = values[first];
+          const kind0 = kinds[first];
+          zr = kind0 === R ? v0 : 0;
+          zi = kind0 === L ? wk * v0 : kind0 === C ? -(1 / (wk * v0)) : 0;
+          for (let i = first + 1; i < end; i++) {
+            const v = values[i];
+            const kind = kinds[i];
+            const across = roles[i] === ACROSS;
+            if (!across) {
+              // A passive branch's real part is ≥ 0 (to rounding), so adding a resistor cannot cancel the sum:
+              // it is added as it is. Adding a reactance is snapped as csum snaps it (a loss-free resonance).
+              if (kind === R) {
+                zr += v;
+                continue;
+              }
+              const x = kind === L ? wk * v : -(1 / (wk * v));
+              const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(x);
+              let si = zi + x;
+              if (Math.abs(zr) <= snapAt * scale) zr = 0;
+              if (Math.abs(si) <= snapAt * scale) si = 0;
+              if (zr === 0 && si === 0) {
+                good = false; // a cancellation: solve() takes this frequency
+                break;
+              }
+              zi = si;
               continue;
             }
-            const x = kind === L ? wk * v : -(1 / (wk * v));
-            const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(x);
-            let si = zi + x;
-            if (Math.abs(zr) <= snapAt * scale) zr = 0;
+            const a = kind === R ? v : 0;
+            const bb = kind === L ? wk * v : kind === C ? -(1 / (wk * v)) : 0;
+            const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(a) + Math.abs(bb);
+            let sr = zr + a;
+            let si = zi + bb;
+            if (Math.abs(sr) <= snapAt * scale) sr = 0;
             if (Math.abs(si) <= snapAt * scale) si = 0;
-            if (zr === 0 && si === 0) {
+            if (sr === 0 && si === 0) {
               good = false; // a cancellation: solve() takes this frequency
               break;
             }
-            zi = si;
-            continue;
+            // z ∥ a = z·a / (z + a)
+            let ur: number, ui: number;
+            const d = sr * sr + si * si;
+            if (d > RECIP_MIN && d < RECIP_MAX) {
+              const t = 1 / d;
+              ur = sr * t;
+              ui = -si * t;
+            } else if (Math.abs(sr) >= Math.abs(si)) {
+              const q = si / sr, t = 1 / (sr + si * q);
+              ur = t;
+              ui = -q * t;
+            } else {
+              const q = sr / si, t = 1 / (sr * q + si);
+              ur = q * t;
+              ui = -t;
+            }
+            const qr = zr * a - zi * bb, qi = zr * bb + zi * a;
+            zr = qr * ur - qi * ui;
+            zi = qr * ui + qi * ur;
           }
-          const a = kind === R ? v : 0;
-          const bb = kind === L ? wk * v : kind === C ? -(1 / (wk * v)) : 0;
-          const scale = Math.abs(zr) + Math.abs(zi) + Math.abs(a) + Math.abs(bb);
-          let sr = zr + a;
-          let si = zi + bb;
-          if (Math.abs(sr) <= snapAt * scale) sr = 0;
-          if (Math.abs(si) <= snapAt * scale) si = 0;
-          if (sr === 0 && si === 0) {
-            good = false; // a cancellation: solve() takes this frequency
-            break;
-          }
-          // z ∥ a = z·a / (z + a)
-          let ur: number, ui: number;
-          const d = sr * sr + si * si;
-          if (d > RECIP_MIN && d < RECIP_MAX) {
-            const t = 1 / d;
-            ur = sr * t;
-            ui = -si * t;
-          } else if (Math.abs(sr) >= Math.abs(si)) {
-            const q = si / sr, t = 1 / (sr + si * q);
-            ur = t;
-            ui = -q * t;
-          } else {
-            const q = sr / si, t = 1 / (sr * q + si);
-            ur = q * t;
-            ui = -t;
-          }
-          const qr = zr * a - zi * bb, qi = zr * bb + zi * a;
-          zr = qr * ur - qi * ui;
-          zi = qr * ui + qi * ur;
         }
         if (!good) break;
         let xr: number, xi: number, yr: number, yi: number; // the running sum's terms: y + x
