@@ -256,7 +256,7 @@ function csum(ar: number, ai: number, br: number, bi: number): boolean {
 /**
  * |a|² between these bounds: 1/a = conj(a)/|a|² takes one division and loses nothing to overflow or underflow
  * (the smaller square, where it underflows, is below the larger's last bit). Outside them the scaled form
- * (Smith's, as `inv` uses) takes two divisions. The batched pass (portsChunk) forms every reciprocal the same way.
+ * (Smith's, as `inv` uses) takes two divisions. The batched pass (portsBatch) forms every reciprocal the same way.
  */
 const RECIP_MIN = 1e-290;
 const RECIP_MAX = 1e290;
@@ -310,7 +310,7 @@ function solverMemory(size: number): Float64Array {
 
 let constants = { yConst: new Float64Array(16), lumped: new Float64Array(48) };
 
-/** Scratch for portsChunk's per-branch constants, grown as needed. */
+/** Scratch for portsBatch's per-branch constants, grown as needed. */
 function branchConstants(branches: number): { yConst: Float64Array; lumped: Float64Array } {
   if (constants.yConst.length < branches) {
     const n = Math.max(branches, 2 * constants.yConst.length);
@@ -444,14 +444,8 @@ export class LadderSolver {
       out.ok.fill(0, 0, count);
       return;
     }
-    this.portsChunk(w, 0, count, source, out);
-  }
-
-  /**
-   * portsBatch for the frequencies o … o + K − 1. The reciprocals are written out where they are used rather
-   * than calling crecip: through its shared OUT array the kernel measured about 45 % slower.
-   */
-  private portsChunk(w: Float64Array, o: number, K: number, source: SourceKind, out: PortBatch): void {
+    // The reciprocals are written out where they are used rather than calling crecip: through its shared OUT
+    // array this loop measured about 45 % slower.
     const { table, values } = this;
     const last = this.lastShunt;
     const ok = out.ok;
@@ -486,8 +480,7 @@ export class LadderSolver {
     }
     // Each frequency's cascade runs in registers, branch by branch from the last shunt (branches after it carry
     // no current and drop no voltage) back to the source; frequencies are independent, so their divisions overlap.
-    for (let k = 0; k < K; k++) {
-      const x = o + k;
+    for (let x = 0; x < count; x++) {
       const wk = w[x];
       // V and I on the far side of the branch being added, per volt at the far end.
       let vr = 1, vi = 0, ir = 0, ii = 0;
