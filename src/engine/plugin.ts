@@ -79,14 +79,6 @@ const UNSIZED = new Set<FunctionArgumentType>([FunctionArgumentType.RANGE, Funct
 
 const isOmitted = (node: unknown): boolean => (node as { type?: unknown } | undefined)?.type === 'EMPTY';
 
-/** Per argument position, whether it is read as a spectrum (the last entry repeats, as the last argument may). */
-const SPECTRUM_ARGS = new WeakMap<FunctionSpec, boolean[]>();
-function spectrumArgs(spec: FunctionSpec): boolean[] {
-  let flags = SPECTRUM_ARGS.get(spec);
-  if (!flags) SPECTRUM_ARGS.set(spec, (flags = spec.args.length ? spec.args.map((a) => a.spectrum === true) : [false]));
-  return flags;
-}
-
 const methodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}`;
 const sizeMethodName = (spec: FunctionSpec): string => `hc_${spec.name.toLowerCase()}_size`;
 
@@ -137,13 +129,14 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     const ctx = this.hc;
     // Not while a size method runs: at parse time the cells may still hold values from before an edit.
     const cache = ctx.sizing > 0 ? undefined : this.rangeCache;
-    const spectral = spectrumArgs(spec);
     try {
       args = new Array(values.length);
       for (let k = 0; k < values.length; k++) {
         // An omitted argument (`=HC.RESPONSE(s, l, , , , "current")`) is null, as Excel passes it; HyperFormula
         // would hand a range argument over as a range of one blank cell.
-        args[k] = isOmitted(argNodes[k]) ? null : toPlain(values[k], cache, spectral[Math.min(k, spectral.length - 1)]);
+        // Past the declared arguments the last one repeats (HC.COMBINE), spectrum mark included.
+        const spectrum = spec.args[Math.min(k, spec.args.length - 1)]?.spectrum === true;
+        args[k] = isOmitted(argNodes[k]) ? null : toPlain(values[k], cache, spectrum);
       }
     } catch (e) {
       if (e instanceof ErrorArgument) return e.error;
@@ -151,20 +144,14 @@ export abstract class HcFunctionPlugin extends FunctionPlugin {
     }
     // Keyed only when the memo could answer or will store (see EngineContext.memo): hashing costs microseconds.
     const key = spec.result === 'matrix' && (ctx.remember > 0 || ctx.memoCount.has(spec.name)) ? callKey(spec.name, args) : undefined;
-    if (spec.spectrum) {
-      // Kept as the spectrum: an enclosing HC call takes it as it is; a cell or another function gets its table.
-      return fromSpectrumResult(memoised(ctx, key, args, () => {
-        const r = invokeSpectrum(spec, args);
-        ctx.onCall?.(spec.name);
-        return r;
-      }));
-    }
-    const result = memoised(ctx, key, args, () => {
-      const r = invoke(spec, args);
+    const counted = <R>(call: () => R) => (): R => {
+      const r = call();
       ctx.onCall?.(spec.name);
       return r;
-    });
-    return fromResult(result, !nested);
+    };
+    // A spectrum is kept as it is: an enclosing HC call takes it so; a cell or another function gets its table.
+    if (spec.spectrum) return fromSpectrumResult(memoised(ctx, key, args, counted(() => invokeSpectrum(spec, args))));
+    return fromResult(memoised(ctx, key, args, counted(() => invoke(spec, args))), !nested);
   }
 
   /** The method HyperFormula calls to evaluate `HC.<NAME>(…)`. */
